@@ -1,0 +1,1 @@
+"""redoxgibbs: energy available to chemotrophic life from the chemistry of natural fluids."""

@@ -1,0 +1,5 @@
+import sys
+
+from .interfaces.cli import main
+
+sys.exit(main())

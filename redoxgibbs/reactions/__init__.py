@@ -1,0 +1,1 @@
+"""reactions layer of redoxgibbs."""

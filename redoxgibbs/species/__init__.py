@@ -1,0 +1,1 @@
+"""species layer of redoxgibbs."""

@@ -1,0 +1,1 @@
+"""standard_state layer of redoxgibbs."""

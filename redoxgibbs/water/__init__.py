@@ -1,0 +1,1 @@
+"""water layer of redoxgibbs."""
