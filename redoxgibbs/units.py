@@ -24,6 +24,9 @@ ureg = pint.UnitRegistry(autoconvert_offset_to_baseunit=True)
 # Molality (per kg of water) is the concentration scale of all aqueous standard states.
 ureg.define("molal = mole / kilogram")
 ureg.define("mmolal = 1e-3 molal")
+# volumes as laboratories write them in unit strings (g/cm3, kg/m3)
+ureg.define("cm3 = centimeter ** 3")
+ureg.define("m3 = meter ** 3")
 Q_ = ureg.Quantity
 
 #: Thermochemical calorie, the unit of the HKF and Maier-Kelley parameter tables [J/cal].

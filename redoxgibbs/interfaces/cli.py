@@ -8,6 +8,7 @@ import numpy as np
 
 from ..errors import RedoxGibbsError
 from ..reactions.reaction import Reaction, reaction_properties
+from ..speciation.solver import speciate
 
 __all__ = ["main"]
 
@@ -43,6 +44,29 @@ def _stdstate(args):
     return 0
 
 
+def _speciation(args):
+    result = speciate(args.samples, args.activity_model, pH_from_charge_balance=args.pH_from_charge_balance)
+    if args.format == "csv":
+        sys.stdout.write(result.to_long_frame().to_csv(index=False, float_format="%.6g"))
+        return 0
+    summary = result.summary_frame()
+    long = result.to_long_frame()
+    print(f"Activity model: {result.activity_model}\n")
+    for i, row in summary.iterrows():
+        flag = "  (beyond the activity model's ionic-strength range)" if row.beyond_activity_model_validity else ""
+        print(f"{row['sample']}: {row.T_C:.2f} degC, {row.P_bar:.2f} bar, in-situ pH {row.pH_insitu:.3f}, "
+              f"I = {row.ionic_strength_mol_per_kg:.4g} mol/kg{flag}, charge imbalance "
+              f"{row.charge_imbalance_eq_per_kg:.3g} eq/kg")
+        top = long[long["sample"] == row["sample"]].nlargest(args.top, "molality_mol_per_kg")
+        for _, sp in top.iterrows():
+            print(f"    {sp.species:<14} {sp.molality_mol_per_kg:11.4e} mol/kg   log10 gamma {sp.log10_gamma:7.3f}")
+        si = [f"{m} {v:+.2f}" for m, v in zip(result.minerals, result.saturation_index[i]) if np.isfinite(v)]
+        if si:
+            print("    saturation index: " + ", ".join(si))
+    print("\n" + SCREENING_NOTE)
+    return 0
+
+
 def _parser():
     parser = argparse.ArgumentParser(
         prog="redoxgibbs",
@@ -56,6 +80,14 @@ def _parser():
                           "saturation above; the default)")
     std.add_argument("--format", choices=("table", "csv"), default="table")
     std.set_defaults(run=_stdstate)
+    spc = sub.add_parser("speciation", help="in-situ speciation of a table of fluid samples")
+    spc.add_argument("samples", help="CSV: sample, T [degC], P [bar], pH, SPECIES [UNIT] columns")
+    spc.add_argument("--activity-model", choices=("ideal", "davies", "bdot"), default="bdot")
+    spc.add_argument("--pH-from-charge-balance", action="store_true",
+                     help="solve pH from charge balance where the pH cell is blank")
+    spc.add_argument("--format", choices=("table", "csv"), default="table")
+    spc.add_argument("--top", type=int, default=8, help="species listed per sample in the table view")
+    spc.set_defaults(run=_speciation)
     return parser
 
 

@@ -249,6 +249,8 @@ def _kind(columns):
         return "mineral"
     if "T_max_K" in cols:
         return "heat_capacity"
+    if "ion_size_angstrom" in cols:
+        return "activity"  # read by the activity layer, not a species record
     raise SpeciesDataError(f"species file with columns {sorted(cols)} is of no known kind")
 
 
@@ -263,7 +265,8 @@ def load_species_data(extra_files=(), check=True):
     With ``check`` (the default) every record is validated (see :mod:`.checks`) and a
     :class:`~redoxgibbs.errors.SpeciesDataError` lists each failing check and by how much.
     """
-    tables = {"hkf": [], "formation": [], "gas": [], "water": [], "mineral": [], "heat_capacity": []}
+    tables = {"hkf": [], "formation": [], "gas": [], "water": [], "mineral": [], "heat_capacity": [],
+              "activity": []}
     for path in list(_default_files()) + [Path(p) for p in extra_files]:
         if not path.exists():
             raise InputError(f"species data: file {path} does not exist")

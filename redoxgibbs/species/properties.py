@@ -4,6 +4,7 @@ Water is evaluated once per distinct (T, P); each model then fills its columns o
 (n_states, n_species) result arrays: G, H [J/mol], S, Cp [J/mol/K], V [cm3/mol].
 """
 
+import functools
 from dataclasses import dataclass
 
 import numpy as np
@@ -62,11 +63,15 @@ def validate_states(T_K, P_bar):
             "equations; give pressures up to 5000 bar")
 
 
+@functools.lru_cache(maxsize=1)
+def _reference_born():
+    """Born functions at 25 C, 1 bar (the reference state of the HKF parameters)."""
+    return born_functions(dielectric_along_TP(water_state(298.15, 1.0)))
+
+
 def _solvent_terms(water, params, n):
-    eps = dielectric_along_TP(water)
-    born = born_functions(eps)
-    ref = water_state(298.15, 1.0)
-    born_r = born_functions(dielectric_along_TP(ref))
+    born = born_functions(dielectric_along_TP(water))
+    born_r = _reference_born()
     gfun = g_function_shock_1992(water.T_K, water.P_bar, water)
     omega = solvation_omega(params, gfun, n)
     return SolventTerms(Z=born.Z, Y=born.Y, Q=born.Q, X=born.X, Z_ref=float(born_r.Z),
@@ -74,16 +79,17 @@ def _solvent_terms(water, params, n):
                         omega_TT=omega[2], omega_P=omega[3])
 
 
-def _hkf_block(records, water, T, P):
+def _hkf_block(records, water, T, P, wanted):
     params = HKFParameters(
         linear=np.stack([r.params["linear_cal"] for r in records], axis=1),
         omega_ref=np.array([r.params["omega_ref_cal"] for r in records]),
         charge=np.array([float(r.charge) for r in records]))
     solvent = _solvent_terms(water, params, T.size)
     cal = 4.184
-    return (hkf_gibbs(params, T, P, solvent) * cal, hkf_enthalpy(params, T, P, solvent) * cal,
-            hkf_entropy(params, T, P, solvent) * cal, hkf_heat_capacity(params, T, P, solvent) * cal,
-            hkf_volume(params, T, P, solvent))
+    equations = {"G": (hkf_gibbs, cal), "H": (hkf_enthalpy, cal), "S": (hkf_entropy, cal),
+                 "Cp": (hkf_heat_capacity, cal), "V": (hkf_volume, 1.0)}
+    return [equations[p][0](params, T, P, solvent) * equations[p][1] if p in wanted else np.nan
+            for p in ("G", "H", "S", "Cp", "V")]
 
 
 def _closure(db, names):
@@ -105,10 +111,61 @@ def _closure(db, names):
     return order
 
 
-def standard_properties(names, T_K, P_bar, db=None):
+ALL_PROPERTIES = ("G", "H", "S", "Cp", "V")
+
+
+def _expand_formation(db, name):
+    """A formation species as (coefficients of non-formation species, summed reaction terms).
+
+    X = sum_r (reaction r) - sum_b c_b B over the whole chain of formation reactions, so that
+    property(X) = sum_r [reaction property] - sum_b c_b property(B); the van 't Hoff terms are
+    linear in dG_r and dH_r, so the chain's are summed. Returns (dict b -> c_b, dG_r(Tr), dH_r,
+    smallest T_max_C, any reaction enthalpy missing).
+    """
+    p = db.record(name).params
+    base, dG, dH = {}, p["dG_r_J"], p["dH_r_J"]
+    T_max, missing = p["T_max_C"], p["dH_r_missing"]
+    for c, parent in p["parents"]:
+        if db.record(parent).model == "formation":
+            sub, sub_dG, sub_dH, sub_T, sub_missing = _expand_formation(db, parent)
+            for b, cb in sub.items():
+                base[b] = base.get(b, 0.0) + c * cb
+            dG, dH = dG - c * sub_dG, dH - c * sub_dH
+            T_max, missing = min(T_max, sub_T), missing or sub_missing
+        else:
+            base[parent] = base.get(parent, 0.0) + c
+    return base, dG, dH, T_max, missing
+
+
+def _formation_block(db, formation, index, T, arrays, flags, properties):
+    """Fill the columns of formation species: reaction terms minus a matrix of base columns."""
+    expanded = [_expand_formation(db, r.name) for r in formation]
+    base_names = sorted({b for e in expanded for b in e[0]}, key=lambda b: index[b])
+    C = np.array([[e[0].get(b, 0.0) for e in expanded] for b in base_names])  # (base, F)
+    bcols = [index[b] for b in base_names]
+    fcols = [index[r.name] for r in formation]
+    dG_r = np.array([e[1] for e in expanded])
+    dH_r = np.array([e[2] for e in expanded])
+    dS_r = vant_hoff_reaction_entropy(dG_r, dH_r)
+    reaction = {"G": vant_hoff_reaction_gibbs(dG_r, dH_r, T[:, None]), "H": dH_r, "S": dS_r,
+                "Cp": 0.0, "V": 0.0}
+    for name, X in zip(ALL_PROPERTIES, arrays):
+        if name in properties:
+            X[:, fcols] = reaction[name] - X[:, bcols] @ C
+    for f in flags.values():
+        f[:, fcols] = (f[:, bcols].astype(float) @ np.abs(C)) > 0
+    T_max = np.array([e[3] for e in expanded])
+    flags["beyond_formation_T_max"][:, fcols] |= (T - 273.15)[:, None] > T_max
+    missing = np.array([e[4] for e in expanded])
+    flags["formation_enthalpy_missing"][:, fcols] |= missing & np.any(T != 298.15)
+
+
+def standard_properties(names, T_K, P_bar, db=None, properties=ALL_PROPERTIES):
     """Standard-state G, H, S, Cp, V of species ``names`` at 1-D arrays ``T_K`` [K], ``P_bar`` [bar].
 
     States must already be liquid or supercritical water (the water layer refuses others).
+    ``properties`` limits the HKF work to what is asked (the others are NaN for HKF species);
+    without "Cp" the water second derivative is skipped.
     """
     db = default_database() if db is None else db
     names = [db.resolve(n) for n in names]
@@ -118,7 +175,7 @@ def standard_properties(names, T_K, P_bar, db=None):
     validate_states(T, P)
     everything = _closure(db, names)
     needs_water = any(db.record(x).model in ("hkf", "iapws95") for x in everything)
-    water = water_state(T, P) if needs_water else None
+    water = water_state(T, P, caloric="Cp" in properties) if needs_water else None
     index = {n: i for i, n in enumerate(everything)}
     n, m = T.size, len(everything)
     G, H, S, Cp, V = (np.zeros((n, m)) for _ in range(5))
@@ -130,7 +187,7 @@ def standard_properties(names, T_K, P_bar, db=None):
     hkf = [r for r in records if r.model == "hkf"]
     if hkf:
         cols = [index[r.name] for r in hkf]
-        for target, value in zip((G, H, S, Cp, V), _hkf_block(hkf, water, T, P)):
+        for target, value in zip((G, H, S, Cp, V), _hkf_block(hkf, water, T, P, properties)):
             target[:, cols] = value
         flags["water_density_below_0.35_g_cm3"][:, cols] = (water.density_kg_m3 < 350.0)[:, None]
         flags["below_0C_extrapolated"][:, cols] = (T < 273.15)[:, None]
@@ -146,26 +203,9 @@ def standard_properties(names, T_K, P_bar, db=None):
             G[:, j], H[:, j], S[:, j], Cp[:, j] = maier_kelley_properties(
                 r.params["segments"], r.G_f, r.H_f, r.S, r.params["V_cm3"], T, P)
             V[:, j] = r.params["V_cm3"]
-    for r in records:  # parents precede their products in ``everything``
-        if r.model != "formation":
-            continue
-        j = index[r.name]
-        p = r.params
-        dS_r = vant_hoff_reaction_entropy(p["dG_r_J"], p["dH_r_J"])
-        G[:, j] = vant_hoff_reaction_gibbs(p["dG_r_J"], p["dH_r_J"], T)
-        H[:, j] = p["dH_r_J"]
-        S[:, j] = dS_r
-        for c, parent in p["parents"]:
-            k = index[parent]
-            G[:, j] -= c * G[:, k]
-            H[:, j] -= c * H[:, k]
-            S[:, j] -= c * S[:, k]
-            Cp[:, j] -= c * Cp[:, k]
-            V[:, j] -= c * V[:, k]
-            for f in flags.values():
-                f[:, j] |= f[:, k]
-        flags["beyond_formation_T_max"][:, j] |= T - 273.15 > p["T_max_C"]
-        flags["formation_enthalpy_missing"][:, j] |= p["dH_r_missing"] and bool(np.any(T != 298.15))
+    formation = [r for r in records if r.model == "formation"]
+    if formation:
+        _formation_block(db, formation, index, T, (G, H, S, Cp, V), flags, properties)
     cols = [index[x] for x in names]
     return StandardProperties(
         names=names, T_K=T, P_bar=P, G=G[:, cols], H=H[:, cols], S=S[:, cols], Cp=Cp[:, cols],

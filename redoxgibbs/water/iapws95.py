@@ -128,8 +128,6 @@ def _saturation_pressure_auxiliary_Pa(T):
 
 def _refuse_below_saturation(phase, T, P_Pa):
     """Refuse a subcritical state below the exact IAPWS-95 saturation pressure (cantera)."""
-    if T >= T_CRITICAL_K or P_Pa > 1.01 * _saturation_pressure_auxiliary_Pa(T):
-        return
     try:
         psat = phase.P_sat
     except ct.CanteraError:
@@ -141,14 +139,22 @@ def _refuse_below_saturation(phase, T, P_Pa):
             "or 'psat'")
 
 
-def _density_at(phase, T, P_Pa, rho_guess):
+def _near_saturation(T, P_Pa):
+    """States (arrays) close enough to saturation to need the exact check."""
+    sub = T < T_CRITICAL_K
+    near = np.zeros(T.shape, dtype=bool)
+    near[sub] = P_Pa[sub] <= 1.01 * _saturation_pressure_auxiliary_Pa(T[sub])
+    return near
+
+
+def _density_at(phase, T, P_Pa, rho_guess, near_saturation):
     """Density at (T, P) on the liquid (or supercritical) branch, with clear refusals."""
     rho = _density_newton(phase, T, P_Pa, rho_guess)
     if rho is not None:
         stable = phase.isothermal_compressibility > 0
         if not stable or (T < T_CRITICAL_K and rho < RHO_CRITICAL):
             rho = None  # an unstable or vapour root: let cantera decide and explain
-        else:
+        elif near_saturation:
             _refuse_below_saturation(phase, T, P_Pa)
     if rho is None:
         try:
@@ -161,6 +167,7 @@ def _density_at(phase, T, P_Pa, rho_guess):
                     "pressure, where water is vapour; give a higher pressure or 'psat'") from None
             raise OutOfValidityError(_near_critical_message(T, P_Pa)) from None
         rho = phase.density
+    phase.TD = T, rho
     return rho
 
 
@@ -172,35 +179,45 @@ def _alpha_at(phase, T, P_Pa, rho_near):
     return phase.thermal_expansion_coeff
 
 
-def _evaluate_cantera(T, P_Pa):
+def _evaluate_cantera(T, P_Pa, caloric=True):
     """Evaluate 1-D arrays of distinct warm states (T >= 273.16 K) through cantera."""
     phase = _phase()
     n = T.size
     out = np.empty((8, n))
     rho_guess = 1300.0
+    near = _near_saturation(T, P_Pa)
     for i in range(n):
         t, p = T[i], P_Pa[i]
-        rho = _density_at(phase, t, p, rho_guess)
-        phase.TD = t, rho
+        rho = _density_at(phase, t, p, rho_guess, near[i])  # leaves the phase at (t, rho)
         alpha = phase.thermal_expansion_coeff
         out[0, i] = rho
         out[1, i] = phase.gibbs_mole
-        out[2, i] = phase.enthalpy_mole
-        out[3, i] = phase.entropy_mole
-        out[4, i] = phase.cp_mole
         out[5, i] = alpha
         out[6, i] = phase.isothermal_compressibility
+        if caloric:  # H, S and Cp go with the heat-capacity level of detail
+            out[2, i] = phase.enthalpy_mole
+            out[3, i] = phase.entropy_mole
+            out[4, i] = phase.cp_mole
+        else:
+            out[2:5, i] = np.nan
         dT = _DT_FOR_DALPHA
-        if t - dT < T_TRIPLE_K:
+        if not caloric:
+            out[7, i] = np.nan
+        elif t - dT < T_TRIPLE_K:
             dT = t - T_TRIPLE_K if t - T_TRIPLE_K > 1e-3 else 0.0
-        if dT > 0:
+        if not caloric:
+            pass
+        elif dT > 0:
             a_hi = _alpha_at(phase, t + dT, p, rho * (1 - alpha * dT))
             a_lo = _alpha_at(phase, t - dT, p, rho * (1 + alpha * dT))
             out[7, i] = (a_hi - a_lo) / (2 * dT)
         else:  # right at the triple point: one-sided difference
             a_hi = _alpha_at(phase, t + _DT_FOR_DALPHA, p, rho * (1 - alpha * _DT_FOR_DALPHA))
             out[7, i] = (a_hi - alpha) / _DT_FOR_DALPHA
-        rho_guess = min(1.1 * rho + 10.0, 1399.0)
+        if i + 1 < n:  # first-order prediction of the next density (states come sorted by T)
+            dT, dP = T[i + 1] - t, P_Pa[i + 1] - p
+            predicted = rho * (1.0 - alpha * dT + out[6, i] * dP)
+            rho_guess = min(max(predicted, 1e-2), 1399.0)
     out[1:4] /= 1000.0  # J/kmol -> J/mol
     out[4] /= 1000.0
     return out
@@ -229,7 +246,7 @@ def _iapws_point(T, P_Pa):
         return iapws.IAPWS95(T=T, P=P_Pa / 1e6)
 
 
-def _evaluate_cold(T, P_Pa):
+def _evaluate_cold(T, P_Pa, caloric=True):
     """Evaluate distinct cold liquid states (T < 273.16 K) with the iapws package (IAPWS-95)."""
     dH, dS = _iapws_reference_offsets()
     M = M_WATER_KG_PER_MOL * 1e3
@@ -237,10 +254,11 @@ def _evaluate_cold(T, P_Pa):
     for i, (t, p) in enumerate(zip(T, P_Pa)):
         s = _iapws_point(t, p)
         dT = 0.05
-        a_hi, a_lo = _iapws_point(t + dT, p).alfav, _iapws_point(t - dT, p).alfav
+        dalpha = np.nan
+        if caloric:
+            dalpha = (_iapws_point(t + dT, p).alfav - _iapws_point(t - dT, p).alfav) / (2 * dT)
         h, S = s.h * M + dH, s.s * M + dS
-        out[:, i] = (s.rho, h - t * S, h, S, s.cp * M, s.alfav, s.kappa * 1e-6,
-                     (a_hi - a_lo) / (2 * dT))
+        out[:, i] = (s.rho, h - t * S, h, S, s.cp * M, s.alfav, s.kappa * 1e-6, dalpha)
     return out
 
 
@@ -256,11 +274,13 @@ def _refuse_frozen(T, P_Pa):
         raise OutOfValidityError("P: below the triple-point pressure water is not liquid")
 
 
-def water_state(T_K, P_bar):
+def water_state(T_K, P_bar, caloric=True):
     """IAPWS-95 properties of liquid or supercritical water at broadcast arrays of T [K], P [bar].
 
     Each distinct (T, P) pair is evaluated once. States where water is vapour (P below
-    saturation) or ice (below the IAPWS R14-08 melting curve) are refused by name.
+    saturation) or ice (below the IAPWS R14-08 melting curve) are refused by name. Without
+    ``caloric`` (H, S, Cp and d(alpha)/dT) they are left NaN (G, density, alpha and beta suffice
+    for Gibbs energies) and the evaluation costs about half.
     """
     T, P = np.broadcast_arrays(np.asarray(T_K, dtype=float), np.asarray(P_bar, dtype=float))
     if T.size == 0:
@@ -272,9 +292,9 @@ def water_state(T_K, P_bar):
     values = np.empty((8, Tu.size))
     warm = Tu >= T_TRIPLE_K
     if warm.any():
-        values[:, warm] = _evaluate_cantera(Tu[warm], Pu_Pa[warm])
+        values[:, warm] = _evaluate_cantera(Tu[warm], Pu_Pa[warm], caloric)
     if (~warm).any():
-        values[:, ~warm] = _evaluate_cold(Tu[~warm], Pu_Pa[~warm])
+        values[:, ~warm] = _evaluate_cold(Tu[~warm], Pu_Pa[~warm], caloric)
     full = values[:, inverse.ravel()].reshape((8,) + T.shape)
     return WaterState(
         T_K=T.copy(), P_bar=P.copy(), density_kg_m3=full[0], G_J_mol=full[1], H_J_mol=full[2],

@@ -1,0 +1,145 @@
+"""Activity models: ideal, Davies and B-dot (extended Debye-Hueckel), selectable by name.
+
+All work on arrays: molalities (n_samples, n_species), ionic strength (n_samples,), the
+Debye-Hueckel A and B of the water layer at each sample's T, P. Each model states its validity in
+ionic strength; samples beyond it are flagged by the caller.
+
+References: Davies (1962) Ion Association, Butterworths, eq. (3.6); Helgeson (1969) Am. J. Sci.
+267, 729, eq. (4) and Table 2 (B-dot); Truesdell & Jones (1974) for the neutral-species term;
+Drummond (1981) Ph.D. thesis, Pennsylvania State Univ. (CO2 activity coefficient in NaCl).
+"""
+
+from dataclasses import dataclass
+from functools import lru_cache
+from importlib import resources
+
+import numpy as np
+import pandas as pd
+
+from ..errors import InputError
+
+__all__ = [
+    "ActivityModel",
+    "activity_model",
+    "ionic_strength",
+    "log10_gamma_davies",
+    "log10_gamma_bdot",
+    "bdot_helgeson_1969",
+    "log10_gamma_co2_drummond_1981",
+    "log10_water_activity",
+    "ion_sizes_angstrom",
+    "MODELS",
+]
+
+M_WATER_KG = 0.0180153
+DEFAULT_ION_SIZE_ANGSTROM = {1: 4.0, 2: 5.0, 3: 9.0}  # common practice for unlisted ions
+
+# Helgeson (1969) Table 2: B-dot [kg/mol] along saturation, from memory
+_BDOT_T_C = np.array([25.0, 50.0, 100.0, 150.0, 200.0, 250.0, 300.0])
+_BDOT = np.array([0.041, 0.043, 0.046, 0.047, 0.047, 0.044, 0.035])
+
+# Setschenow coefficients k [kg/mol], log10 gamma = k I, of dissolved gases in NaCl solutions near
+# 25 C (Weisenberger & Schumpe 1996, AIChE J. 42, 298, evaluated for NaCl; from memory).
+SETSCHENOW_K = {"O2(aq)": 0.141, "N2(aq)": 0.130, "H2(aq)": 0.105, "CH4(aq)": 0.127,
+                "H2S(aq)": 0.061, "CO(aq)": 0.130, "N2O(aq)": 0.110}
+
+
+def ionic_strength(molality, charge):
+    """I = 1/2 sum m_i z_i^2 [mol/kg]; molality (..., n_species), charge (n_species,)."""
+    return 0.5 * molality @ (np.asarray(charge, dtype=float) ** 2)
+
+
+def log10_gamma_davies(charge, I, A):
+    """Davies (1962): log10 gamma = -A z^2 [sqrt(I)/(1 + sqrt(I)) - 0.3 I]; valid I <= 0.5 mol/kg."""
+    sI = np.sqrt(I)[..., None]
+    return -A[..., None] * np.asarray(charge, float) ** 2 * (sI / (1 + sI) - 0.3 * I[..., None])
+
+
+def bdot_helgeson_1969(T_K):
+    """B-dot [kg/mol] of Helgeson (1969) Table 2, interpolated in T (held at the ends)."""
+    return np.interp(np.asarray(T_K, float) - 273.15, _BDOT_T_C, _BDOT)
+
+
+def log10_gamma_bdot(charge, ion_size, I, A, B, bdot):
+    """B-dot (Helgeson 1969, eq. 4): log10 gamma = -A z^2 sqrt(I) / (1 + a B sqrt(I)) + Bdot I.
+
+    ``ion_size`` a [angstrom] and ``charge`` per species; A, B [1/angstrom], bdot per sample.
+    Valid to about I = 1 mol/kg in NaCl-dominated solutions (Helgeson 1969).
+    """
+    sI = np.sqrt(I)[..., None]
+    z2 = np.asarray(charge, float) ** 2
+    return -A[..., None] * z2 * sI / (1 + np.asarray(ion_size) * B[..., None] * sI) + (bdot * I)[..., None]
+
+
+def log10_gamma_co2_drummond_1981(T_K, I):
+    """log10 gamma of CO2(aq) in NaCl solutions, Drummond (1981), as given by many later works.
+
+    ln gamma = (C + F T + G/T) I - (E + H T) I/(I + 1), C = -1.0312, F = 1.2806e-3, G = 255.9,
+    E = 0.4445, H = -1.606e-3 (T in K; from memory). Valid 0-400 C, I up to about 4 mol/kg.
+    """
+    T = np.asarray(T_K, float)
+    ln_gamma = (-1.0312 + 1.2806e-3 * T + 255.9 / T) * I - (0.4445 - 1.606e-3 * T) * I / (I + 1)
+    return ln_gamma / np.log(10)
+
+
+def log10_water_activity(total_solute_molality):
+    """log10 a_w = -M_w sum(m) / ln 10: Raoult's law (osmotic coefficient 1), stated approximation.
+
+    Good to about 0.2 % in a_w for seawater (osmotic coefficient 0.90); the error enters log Q of a
+    reaction only through its water coefficient.
+    """
+    return -M_WATER_KG * total_solute_molality / np.log(10)
+
+
+@lru_cache(maxsize=1)
+def _ion_size_table():
+    path = resources.files("redoxgibbs.species_data") / "ion_sizes.csv"
+    table = pd.read_csv(str(path), comment="#", skipinitialspace=True)
+    return dict(zip(table["name"], table["ion_size_angstrom"].astype(float)))
+
+
+def ion_sizes_angstrom(names, charges):
+    """Ion-size parameters of species (Kielland 1937 where listed, a default by charge otherwise)."""
+    table = _ion_size_table()
+    return np.array([table.get(n, DEFAULT_ION_SIZE_ANGSTROM.get(min(abs(int(z)), 3), 4.0)) if z else 0.0
+                     for n, z in zip(names, charges)])
+
+
+@dataclass(frozen=True)
+class ActivityModel:
+    """A named activity model and the largest ionic strength it is trusted to [mol/kg]."""
+
+    name: str
+    I_max: float
+
+    def log10_gamma(self, names, charges, I, T_K, A, B):
+        """log10 gamma (n_samples, n_species) of the species at ionic strength I per sample."""
+        charges = np.asarray(charges, float)
+        n = I.shape[0]
+        if self.name == "ideal":
+            return np.zeros((n, charges.size))
+        if self.name == "davies":
+            out = log10_gamma_davies(charges, I, A)
+        else:
+            sizes = ion_sizes_angstrom(names, charges)
+            out = log10_gamma_bdot(charges, sizes, I, A, B, bdot_helgeson_1969(T_K))
+        neutral = charges == 0
+        out[:, neutral] = 0.0
+        for j, name in enumerate(names):
+            if name == "CO2(aq)":
+                out[:, j] = log10_gamma_co2_drummond_1981(T_K, I)
+            elif name in SETSCHENOW_K:
+                out[:, j] = SETSCHENOW_K[name] * I
+        return out
+
+
+MODELS = {"ideal": ActivityModel("ideal", np.inf), "davies": ActivityModel("davies", 0.5),
+          "bdot": ActivityModel("bdot", 1.0)}
+
+
+def activity_model(name):
+    """The activity model called ``name`` ('ideal', 'davies' or 'bdot')."""
+    try:
+        return MODELS[name.strip().lower()]
+    except (KeyError, AttributeError):
+        raise InputError(f"activity model: {name!r} is unknown; choose one of {', '.join(MODELS)}") from None

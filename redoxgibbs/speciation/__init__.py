@@ -1,0 +1,1 @@
+"""Sample tables and speciation."""

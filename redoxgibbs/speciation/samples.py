@@ -1,0 +1,185 @@
+"""Sample tables as labs report them, turned into molalities at 1 kg of water.
+
+Contract (one row per sample; other columns may be added and are ignored):
+``sample``, ``T [degC]``, ``P [bar]`` (a number or ``psat``), ``pH``, optionally ``pH T [degC]``
+and ``density [g/cm3]``; composition columns ``SPECIES [UNIT]`` holding the analytical total of
+that species' component; gas columns ``GAS(g) [bar|atm|Pa|MPa]`` fixing its fugacity. Blank cells
+mean "not measured". Amount units: mol/kg, mmol/kg, umol/kg, nmol/kg (per kg of water),
+mol/kg-solution (and m-, u-, n-), mol/L (and m-, u-, n-), mg/L, ug/L, ppm and ppb (by mass).
+"""
+
+import re
+from dataclasses import dataclass, field
+
+import numpy as np
+import pandas as pd
+
+from ..errors import InputError, UnknownSpeciesError
+from ..species.database import default_database
+from ..species.elements import molar_mass_g_mol
+from ..units import to_unit
+from ..water.iapws95 import psat_convention_bar
+
+__all__ = ["SampleSet", "read_samples", "parse_column_header"]
+
+_HEADER = re.compile(r"^\s*(.+?)\s*\[\s*(.+?)\s*\]\s*$")
+_PREFIX = {"": 1.0, "m": 1e-3, "u": 1e-6, "n": 1e-9}
+# amount units -> (basis, factor to mol or kg-scale)
+_AMOUNT_UNITS = {}
+for p, f in _PREFIX.items():
+    _AMOUNT_UNITS[f"{p}mol/kg"] = ("per_kg_water", f)
+    _AMOUNT_UNITS[f"{p}mol/kg-solution"] = ("per_kg_solution", f)
+    _AMOUNT_UNITS[f"{p}mol/l"] = ("per_litre", f)
+    _AMOUNT_UNITS[f"{p}m"] = ("per_litre", f)   # molar: M, mM, uM, nM
+_MASS_UNITS = {"mg/l": ("per_litre", 1e-3), "ug/l": ("per_litre", 1e-6),
+               "ppm": ("per_kg_solution", 1e-3), "ppb": ("per_kg_solution", 1e-6)}
+_GAS_UNITS = ("bar", "atm", "pa", "mpa", "kpa")
+SEAWATER_DENSITY_SLOPE = 0.73  # kg/L per kg/kg of dissolved solids, estimate stated in output
+
+
+def parse_column_header(header):
+    """(name, unit) of a ``'NAME [UNIT]'`` header, or (header, None)."""
+    m = _HEADER.match(str(header))
+    return (m.group(1), m.group(2)) if m else (str(header).strip(), None)
+
+
+@dataclass
+class SampleSet:
+    """Samples as arrays (n samples); totals in mol per kg of water, NaN where not measured."""
+
+    names: list
+    T_K: np.ndarray
+    P_bar: np.ndarray
+    pH: np.ndarray                 # NaN: not given (solve from charge balance if asked)
+    pH_T_K: np.ndarray             # temperature at which pH was measured
+    totals: dict                   # component master species -> molality array
+    gas_fugacity_bar: dict         # gas species -> fugacity array
+    density_kg_L: np.ndarray
+    density_estimated: np.ndarray
+    notes: list = field(default_factory=list)
+
+    def __len__(self):
+        return len(self.names)
+
+
+def _numeric(frame, column, row_labels, allow_blank=True, low=None, high=None, what="value"):
+    raw = frame[column]
+    values = pd.to_numeric(raw, errors="coerce").to_numpy(dtype=float)
+    bad = np.isnan(values) & raw.notna().to_numpy() & (raw.astype(str).str.strip() != "").to_numpy()
+    if bad.any():
+        i = int(np.flatnonzero(bad)[0])
+        raise InputError(f"row {row_labels[i]}, column {column!r}: {raw.iloc[i]!r} is not a number")
+    if not allow_blank and np.isnan(values).any():
+        i = int(np.flatnonzero(np.isnan(values))[0])
+        raise InputError(f"row {row_labels[i]}, column {column!r}: a {what} is required")
+    for limit, test, word in ((low, np.less, "below"), (high, np.greater, "above")):
+        if limit is not None:
+            out = test(values, limit) & ~np.isnan(values)
+            if out.any():
+                i = int(np.flatnonzero(out)[0])
+                raise InputError(f"row {row_labels[i]}, column {column!r}: {values[i]:g} is {word} "
+                                 f"the allowed {what} range limit {limit:g}")
+    return values
+
+
+def _pressures(frame, labels, T_K):
+    col = next((c for c in frame.columns if parse_column_header(c)[0] == "P"), None)
+    if col is None:
+        raise InputError("samples: a pressure column 'P [bar]' is required (a number or 'psat')")
+    unit = parse_column_header(col)[1] or "bar"
+    text = frame[col].astype(str).str.strip().str.lower()
+    is_psat = (text == "psat").to_numpy()
+    P = np.empty(len(frame))
+    if is_psat.any():
+        P[is_psat] = psat_convention_bar(T_K[is_psat])
+    if (~is_psat).any():
+        sub = frame.loc[~is_psat, [col]]
+        values = _numeric(sub, col, [labels[i] for i in np.flatnonzero(~is_psat)], allow_blank=False,
+                          low=0.0, what="pressure")
+        P[~is_psat] = to_unit(values, unit, "bar", f"column {col!r}")
+    return P
+
+
+def read_samples(source, db=None):
+    """Read a sample table (CSV path or DataFrame) into a :class:`SampleSet`, validating each cell."""
+    db = default_database() if db is None else db
+    frame = pd.read_csv(source, skipinitialspace=True) if not isinstance(source, pd.DataFrame) else source.copy()
+    frame.columns = [str(c).strip() for c in frame.columns]
+    if "sample" not in frame.columns:
+        raise InputError("samples: a 'sample' column (the sample names) is required")
+    labels = [str(s) for s in frame["sample"]]
+    headers = {c: parse_column_header(c) for c in frame.columns}
+    t_col = next((c for c, (n, u) in headers.items() if n == "T"), None)
+    if t_col is None:
+        raise InputError("samples: a temperature column 'T [degC]' is required")
+    T = _numeric(frame, t_col, labels, allow_blank=False, what="temperature")
+    T_K = to_unit(T, headers[t_col][1] or "degC", "kelvin", f"column {t_col!r}")
+    P = _pressures(frame, labels, T_K)
+    pH = _numeric(frame, "pH", labels, low=-2.0, high=16.0, what="pH") if "pH" in frame else np.full(len(frame), np.nan)
+    pht_col = next((c for c, (n, u) in headers.items() if n == "pH T"), None)
+    pH_T_K = T_K.copy()
+    if pht_col:
+        given = _numeric(frame, pht_col, labels, what="temperature")
+        has = ~np.isnan(given)
+        pH_T_K[has] = to_unit(given[has], headers[pht_col][1] or "degC", "kelvin", f"column {pht_col!r}")
+    totals_raw, gases, reserved = {}, {}, {"sample", "pH", t_col, pht_col}
+    density = np.full(len(frame), np.nan)
+    for col, (name, unit) in headers.items():
+        if col in reserved or name == "P":
+            continue
+        if name == "density":
+            density = _numeric(frame, col, labels, low=0.5, high=2.0, what="density") * \
+                to_unit(1.0, unit or "g/cm3", "kg/L", f"column {col!r}")
+            continue
+        if unit is None:
+            continue  # free-text or extra columns are ignored
+        try:
+            species = db.resolve(name)
+        except UnknownSpeciesError as err:
+            raise InputError(f"column {col!r}: {err}") from None
+        values = _numeric(frame, col, labels, low=0.0, what="amount")
+        rec = db.record(species)
+        if rec.state == "gas":
+            if unit.strip().lower() not in _GAS_UNITS:
+                raise InputError(f"column {col!r}: a gas column takes a pressure unit (bar, atm, Pa, MPa), got {unit!r}")
+            gases[species] = to_unit(values, unit, "bar", f"column {col!r}")
+            continue
+        key = unit.strip().lower().replace("µ", "u").replace("μ", "u").replace(" ", "")
+        if key in _AMOUNT_UNITS:
+            basis, factor = _AMOUNT_UNITS[key]
+            mol = values * factor
+        elif key in _MASS_UNITS:
+            basis, factor = _MASS_UNITS[key]
+            mol = values * factor / molar_mass_g_mol(rec.elements)
+        else:
+            raise InputError(f"column {col!r}: unit {unit!r} is not an amount unit; use mol/kg, mmol/kg, "
+                             "umol/kg, nmol/kg, mol/kg-solution, mol/L, mmol/L, mg/L, ug/L, ppm or ppb")
+        if species in totals_raw:
+            raise InputError(f"column {col!r}: {species} is given twice")
+        totals_raw[species] = (basis, mol, molar_mass_g_mol(rec.elements) / 1000.0)
+    totals, estimated = _to_molality(totals_raw, density)
+    return SampleSet(names=labels, T_K=T_K, P_bar=P, pH=pH, pH_T_K=pH_T_K, totals=totals,
+                     gas_fugacity_bar=gases, density_kg_L=density, density_estimated=estimated)
+
+
+def _to_molality(totals_raw, density_kg_L):
+    """Molalities from amounts per kg water, per kg solution and per litre (fixed point in W).
+
+    W (kg water per kg solution) = 1 / (1 + sum m_i M_i); per kg solution: m = c / W; per litre:
+    m = c / (W rho). Without a measured density, rho = 0.997 + 0.73 (1 - W) kg/L (estimate).
+    """
+    n = len(density_kg_L)
+    estimated = np.isnan(density_kg_L) & any(b == "per_litre" for b, _, _ in totals_raw.values())
+    m = {k: np.nan_to_num(v[1]) for k, v in totals_raw.items()}
+    for _ in range(50):
+        W = 1.0 / (1.0 + sum(m[k] * totals_raw[k][2] for k in m)) if m else np.ones(n)
+        rho = np.where(np.isnan(density_kg_L), 0.997 + SEAWATER_DENSITY_SLOPE * (1 - W), density_kg_L)
+        new = {}
+        for k, (basis, c, _) in totals_raw.items():
+            c0 = np.nan_to_num(c)
+            new[k] = c0 if basis == "per_kg_water" else (c0 / W if basis == "per_kg_solution" else c0 / (W * rho))
+        if all(np.allclose(new[k], m[k], rtol=1e-14, atol=0) for k in m):
+            m = new
+            break
+        m = new
+    return {k: np.where(np.isnan(totals_raw[k][1]), np.nan, m[k]) for k in m}, estimated

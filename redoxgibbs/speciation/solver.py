@@ -1,0 +1,257 @@
+"""Speciation: mass balance, mass action and an activity model, solved for all samples at once.
+
+Unknowns per sample: log10 molality of each component master and log10 a(H+). Rows: mass balance
+of each measured component (sum_i nu_ij m_i = total_j), and either a fixed pH or charge balance
+(sum_i z_i m_i = target). A batched Newton iteration (np.linalg.solve over the sample axis) with
+activity coefficients, ionic strength and water activity updated after every step; iteration
+stops when every residual is below 1e-12 of its scale and activity coefficients have settled.
+Redox couples are separate components and are not equilibrated with each other.
+"""
+
+from dataclasses import dataclass
+
+import numpy as np
+import pandas as pd
+
+from ..activities.models import activity_model, ionic_strength, log10_water_activity
+from ..errors import InputError
+from ..species.database import R_J_MOL_K, default_database
+from ..species.properties import standard_properties
+from ..water.born import debye_hueckel_A, debye_hueckel_B
+from ..water.dielectric import dielectric_johnson_norton_1991
+from ..water.iapws95 import psat_convention_bar
+from .samples import SampleSet, read_samples
+from .system import build_system
+
+__all__ = ["SpeciationResult", "speciate"]
+
+LN10 = np.log(10.0)
+ABSENT_LOG_M = -60.0       # log10 molality standing in for an unmeasured component
+MAX_STEP = 2.0             # largest Newton step in log10 units
+MAX_ITERATIONS = 300
+TOLERANCE = 1e-11          # residuals, relative to each row's scale (mass balance to 1e-11)
+GAMMA_TOLERANCE = 1e-10    # change of log10 gamma between iterations
+
+
+@dataclass
+class SpeciationResult:
+    """Speciation of n samples over the system's species (arrays (n, n_species) unless noted)."""
+
+    samples: list
+    species: list
+    T_K: np.ndarray
+    P_bar: np.ndarray
+    molality: np.ndarray
+    log10_gamma: np.ndarray
+    ionic_strength: np.ndarray          # (n,)
+    pH: np.ndarray                      # in-situ pH (-log10 a H+), (n,)
+    charge_imbalance: np.ndarray        # sum z m [eq/kg], (n,)
+    log10_water_activity: np.ndarray    # (n,)
+    totals: dict                        # component -> total molality (n,)
+    minerals: list
+    saturation_index: np.ndarray        # (n, n_minerals)
+    iterations: np.ndarray              # Newton iterations per sample (both stages), (n,)
+    activity_model: str
+    beyond_model_validity: np.ndarray   # ionic strength above the model's stated limit, (n,)
+    present: np.ndarray                 # bool (n, n_species): built only from measured components
+
+    @property
+    def log10_activity(self):
+        with np.errstate(divide="ignore"):
+            return np.where(self.present, np.log10(np.where(self.present, self.molality, 1.0)) + self.log10_gamma, -np.inf)
+
+    def to_long_frame(self):
+        """One row per sample x species, units in the column names."""
+        n, s = self.molality.shape
+        frame = pd.DataFrame({
+            "sample": np.repeat(self.samples, s), "species": np.tile(self.species, n),
+            "molality_mol_per_kg": self.molality.ravel(), "log10_gamma": self.log10_gamma.ravel(),
+            "log10_activity": self.log10_activity.ravel(),
+            "ionic_strength_mol_per_kg": np.repeat(self.ionic_strength, s)})
+        return frame[self.present.ravel()].reset_index(drop=True)
+
+    def summary_frame(self):
+        return pd.DataFrame({
+            "sample": self.samples, "T_C": self.T_K - 273.15, "P_bar": self.P_bar,
+            "pH_insitu": self.pH, "ionic_strength_mol_per_kg": self.ionic_strength,
+            "charge_imbalance_eq_per_kg": self.charge_imbalance,
+            "beyond_activity_model_validity": self.beyond_model_validity,
+            "newton_iterations": self.iterations})
+
+
+def _log_k(system, db, T_K, P_bar):
+    """log10 K of formation from the masters of every species and mineral, and water density."""
+    names = system.species + system.minerals + ["H2O(l)"]
+    props = standard_properties(names, T_K, P_bar, db=db, properties=("G",))
+    G = props.G
+    n_sp, n_min = len(system.species), len(system.minerals)
+    G_w = G[:, n_sp + n_min]
+    G_masters = G[:, [system.species.index(m) for m in system.masters]]
+    RT = R_J_MOL_K * T_K[:, None] * LN10
+    dG_sp = G[:, :n_sp] - G_masters @ system.nu.T - G_w[:, None] * system.nu_w
+    dG_min = G[:, n_sp:n_sp + n_min] - G_masters @ system.nu_min.T - G_w[:, None] * system.nu_w_min
+    return -dG_sp / RT, -dG_min / RT, props.water_density_kg_m3
+
+
+def _newton(system, model, logK, A, B, T_K, totals, fixed_log_a, log_aH, charge_target, solve_H):
+    """Batched Newton solve; returns molality, log10 gamma, I, log a_w, log a_H, iterations.
+
+    Unknowns x = (log10 m of the k masters, log10 a_H+). Rows: mass balance per master and charge
+    balance. With rows = [nu | z] and columns = [nu | nu_H] (species x (k+1)), the Jacobian is
+    J_rc = ln10 sum_s rows_sr cols_sc m_s: one (n x s) @ (s x (k+1)^2) product per iteration,
+    restricted to the unknowns that have an equation (grouped by pattern). Samples leave the
+    iteration as they converge.
+    """
+    n, k = totals.shape
+    nu_w, z = system.nu_w, system.charge
+    rows = np.column_stack([system.nu, z])
+    cols = np.column_stack([system.nu, system.nu_H])
+    W = (rows[:, :, None] * cols[:, None, :]).reshape(len(system.species), (k + 1) ** 2) * LN10
+    measured = np.isfinite(totals) & (totals > 0)   # zero or blank: nothing to balance
+    fixed = np.isfinite(fixed_log_a)
+    x = np.where(measured, np.log10(np.where(measured, totals, 1.0)), ABSENT_LOG_M)
+    x = np.where(fixed, fixed_log_a, x)
+    x = np.column_stack([x, np.where(np.isfinite(log_aH), log_aH, -7.0)])
+    target = np.column_stack([np.nan_to_num(totals), charge_target])
+    frozen = np.concatenate([~measured | fixed, ~solve_H[:, None]], axis=1)
+    is_fixed = np.column_stack([fixed, np.zeros(n, bool)])
+    fixed_full = np.column_stack([np.where(fixed, fixed_log_a, 0.0), np.zeros(n)])
+    free_masters = np.column_stack([~fixed, np.zeros(n, bool)]).astype(float)  # log a = x + lg
+    # start from the activity coefficients of the masters' own ionic strength
+    I = ionic_strength(np.nan_to_num(totals), z[:k])
+    lg = model.log10_gamma(system.species, z, I, T_K, A, B)
+    log_aw = log10_water_activity(np.nan_to_num(totals).sum(axis=1))
+    m = np.zeros((n, len(system.species)))
+    iterations = np.zeros(n, dtype=int)
+    active = np.arange(n)
+    abs_rows = np.abs(rows)
+    # which unknowns have an equation is fixed per sample: group samples by that pattern once
+    pattern_of, pattern_keys = np.unique(frozen.astype(np.int64) @ (1 << np.arange(k + 1)), return_inverse=True)[::-1]
+    pattern_free = [~frozen[np.flatnonzero(pattern_of == p)[0]] for p in range(pattern_keys.size)]
+    W3 = W.reshape(-1, k + 1, k + 1)
+    pattern_W = [W3[:, f][:, :, f].reshape(W.shape[0], -1) for f in pattern_free]
+
+    def molalities(idx, lg_now, aw_now):
+        la = x[idx] + lg_now[:, cols_masters] * free_masters[idx]
+        la = np.where(is_fixed[idx], fixed_full[idx], la)
+        log_m = logK[idx] + la @ cols.T + aw_now[:, None] * nu_w - lg_now
+        return 10.0 ** np.minimum(log_m, 3.0)
+
+    cols_masters = np.r_[np.arange(k), 0]  # the H+ column carries no gamma (a_H is the unknown)
+    for _ in range(MAX_ITERATIONS):
+        idx = slice(None) if active.size == n else active   # a view while all samples iterate
+        # one fixed-point update of gamma and a_w at the current unknowns, then a Newton step at
+        # those activity coefficients (their lag shrinks the error about 50-fold per iteration)
+        ma = molalities(idx, lg[idx], log_aw[idx])
+        lg_new = model.log10_gamma(system.species, z, ionic_strength(ma, z), T_K[idx], A[idx], B[idx])
+        aw_new = log10_water_activity(ma.sum(axis=1))
+        changed = np.abs(lg_new - lg[idx]).max(axis=1)
+        lg[idx], log_aw[idx] = lg_new, aw_new
+        ma = molalities(idx, lg_new, aw_new)
+        m[idx] = ma
+        fr = frozen[idx]
+        scale = ma @ abs_rows + 1e-300
+        R = np.where(fr, 0.0, (ma @ rows - target[idx]) / scale)
+        settled = (np.abs(R).max(axis=1) < TOLERANCE) & (changed < GAMMA_TOLERANCE)
+        if settled.all():
+            break
+        if settled.any():
+            go = ~settled
+            active, ma, R, scale, fr = active[go], ma[go], R[go], scale[go], fr[go]
+        step = np.zeros((active.size, k + 1))
+        groups = pattern_of[active]
+        for p in np.unique(groups):
+            free = pattern_free[p]
+            if not free.any():
+                continue
+            sel = slice(None) if groups.size == 1 or (groups == p).all() else np.flatnonzero(groups == p)
+            f = int(free.sum())
+            J = (ma[sel] @ pattern_W[p]).reshape(-1, f, f) / scale[sel][:, free, None]
+            sub = np.linalg.solve(J, -R[sel][:, free, None])[..., 0]
+            if isinstance(sel, slice):
+                step[:, free] = sub
+            else:
+                step[np.ix_(sel, np.flatnonzero(free))] = sub
+        x[active] += np.clip(step, -MAX_STEP, MAX_STEP)
+        iterations[active] += 1
+    else:
+        raise InputError(f"speciation did not converge in {MAX_ITERATIONS} iterations for sample rows "
+                         f"{active[:5].tolist()}; check the totals and pH of these samples")
+    return m, lg, ionic_strength(m, z), log_aw, x[:, k], iterations
+
+
+def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, db=None):
+    """Speciate a sample table (path, DataFrame or :class:`SampleSet`) at in-situ T and P.
+
+    pH: given at in-situ T; or measured at ``pH T`` and carried to in-situ T, P by re-speciating at
+    constant totals and charge balance; or, when missing and ``pH_from_charge_balance`` is set,
+    solved from charge balance.
+    """
+    db = default_database() if db is None else db
+    s = samples if isinstance(samples, SampleSet) else read_samples(samples, db=db)
+    model = activity_model(activity_model_name)
+    masters = list(s.totals)
+    gas_masters = {}
+    for gas in s.gas_fugacity_bar:
+        aq = db.resolve(db.record(gas).formula + "(aq)")
+        if aq in masters:
+            raise InputError(f"columns {gas} and {aq}: give either the gas fugacity or the dissolved total")
+        gas_masters[gas] = aq
+        masters.append(aq)
+    if not masters:
+        raise InputError("samples: no composition columns (e.g. 'Na+ [mmol/kg]') were found")
+    system = build_system(masters, db)
+    missing_pH = np.isnan(s.pH)
+    if missing_pH.any() and not pH_from_charge_balance:
+        i = int(np.flatnonzero(missing_pH)[0])
+        raise InputError(f"row {s.names[i]}, column 'pH': no pH given; give one or ask for pH from charge balance")
+    n, k = len(s), len(masters)
+    totals = np.column_stack([s.totals.get(mname, np.full(n, np.nan)) if mname not in gas_masters.values()
+                              else np.full(n, np.nan) for mname in masters])
+
+    def stage(T_K, P_bar, log_aH, charge_target, solve_H):
+        logK, logK_min, rho = _log_k(system, db, T_K, P_bar)
+        fixed = np.full((n, k), np.nan)
+        if gas_masters:
+            props = standard_properties(list(gas_masters) + list(gas_masters.values()), T_K, P_bar,
+                                        db=db, properties=("G",))
+            g = len(gas_masters)
+            logK_gas = -(props.G[:, g:] - props.G[:, :g]) / (R_J_MOL_K * T_K[:, None] * LN10)
+            for j, (gas, aq) in enumerate(gas_masters.items()):
+                with np.errstate(divide="ignore"):
+                    fixed[:, masters.index(aq)] = np.log10(s.gas_fugacity_bar[gas]) + logK_gas[:, j]
+        eps = dielectric_johnson_norton_1991(T_K, rho)[0]
+        A, B = debye_hueckel_A(T_K, rho, eps), debye_hueckel_B(T_K, rho, eps)
+        out = _newton(system, model, logK, A, B, T_K, totals, fixed, log_aH, charge_target, solve_H)
+        return out, logK_min
+
+    # stage 1: where pH was measured at another temperature, speciate there to fix the charge balance
+    charge_target = np.zeros(n)
+    iterations = np.zeros(n, dtype=int)
+    shifted = ~missing_pH & (np.abs(s.pH_T_K - s.T_K) > 1e-9)
+    if shifted.any():
+        P_lab = psat_convention_bar(s.pH_T_K)
+        (m, lg, I, law, xH, its), _ = stage(s.pH_T_K, P_lab, -s.pH, np.zeros(n), np.zeros(n, bool))
+        charge_target = np.where(shifted, m @ system.charge, 0.0)
+        iterations += np.where(shifted, its, 0)
+    solve_H = missing_pH | shifted
+    (m, lg, I, law, xH, its), logK_min = stage(s.T_K, s.P_bar, np.where(solve_H, np.nan, -s.pH),
+                                               charge_target, solve_H)
+    iterations += its
+    is_gas = np.isin(np.array(masters), list(gas_masters.values()))[None, :]
+    unmeasured = ~np.isfinite(totals) & ~is_gas
+    zero = (totals == 0) & ~is_gas
+    uses = system.nu[None, :, :] != 0
+    present = ~(uses & unmeasured[:, None, :]).any(axis=2)
+    m = np.where(present & ~(uses & zero[:, None, :]).any(axis=2), m, 0.0)
+    positive = m[:, :k] > 0
+    la = np.where(positive, np.log10(np.where(positive, m[:, :k], 1.0)), ABSENT_LOG_M) + lg[:, :k]
+    si = logK_min + la @ system.nu_min.T + law[:, None] * system.nu_w_min + xH[:, None] * system.nu_H_min
+    mineral_ok = ~((system.nu_min[None, :, :] != 0) & (unmeasured | zero)[:, None, :]).any(axis=2)
+    si = np.where(mineral_ok, si, np.nan)
+    return SpeciationResult(
+        samples=s.names, species=system.species, T_K=s.T_K, P_bar=s.P_bar, molality=m,
+        log10_gamma=lg, ionic_strength=I, pH=-xH, charge_imbalance=m @ system.charge,
+        log10_water_activity=law, totals={mn: m @ system.nu[:, j] for j, mn in enumerate(masters)},
+        minerals=system.minerals, saturation_index=si, iterations=iterations,
+        activity_model=model.name, beyond_model_validity=I > model.I_max, present=present)
