@@ -177,3 +177,13 @@ def test_mineral_heat_content_against_nasa_condensed(mineral, nasa_name, T_max):
     dH = sp.H[:, 0] - sp.H[0, 0]
     assert np.abs(dH - dH_ref).max() <= 0.015 * np.abs(dH_ref).max()
     assert np.abs(sp.S[:, 0] - S_ref).max() < 1.5
+
+
+@pytest.mark.parametrize("reaction,logK", [
+    # Nordstrom et al. (1990) ACS Symp. Ser. 416, Table 2 (from memory): the inputs of the
+    # formation records, recovered through chains of formation species (Fe^3+ from Fe^2+)
+    ("Fe^3+ + H2O(l) = FeOH^2+ + H+", -2.19), ("Fe^3+ + 4 H2O(l) = Fe(OH)4- + 4 H+", -21.6),
+    ("ferrihydrite + 3 H+ = Fe^3+ + 3 H2O(l)", 4.891), ("Fe^2+ + SO4^2- = FeSO4(aq)", 2.25),
+    ("Mg^2+ + SO4^2- = MgSO4(aq)", 2.37)])
+def test_formation_constants_survive_chains(reaction, logK):
+    assert float(reaction_properties(reaction, 25.0, 1.0).logK) == pytest.approx(logK, abs=1e-6)

@@ -129,7 +129,7 @@ def _expand_formation(db, name):
         if db.record(parent).model == "formation":
             sub, sub_dG, sub_dH, sub_T, sub_missing = _expand_formation(db, parent)
             for b, cb in sub.items():
-                base[b] = base.get(b, 0.0) + c * cb
+                base[b] = base.get(b, 0.0) - c * cb
             dG, dH = dG - c * sub_dG, dH - c * sub_dH
             T_max, missing = min(T_max, sub_T), missing or sub_missing
         else:

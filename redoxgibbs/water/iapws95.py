@@ -98,7 +98,7 @@ def _density_newton(phase, T, P_Pa, rho_guess):
     for _ in range(40):
         phase.TD = T, rho
         residual = phase.P - P_Pa
-        if abs(residual) <= 1e-10 * P_Pa:
+        if abs(residual) <= 1e-13 * P_Pa:
             return rho
         if residual > 0:
             hi = rho

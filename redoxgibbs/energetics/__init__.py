@@ -1,0 +1,1 @@
+"""Energy budgets: catalog, in-situ Gibbs energies, energy densities, power and cells."""

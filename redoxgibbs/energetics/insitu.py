@@ -1,0 +1,164 @@
+"""In-situ Gibbs energies and energy densities over samples x reactions.
+
+dGr = dG0(T, P) + RT ln Q, with log10 Q = sum_i nu_i log10 a_i (activities from speciation);
+affinity = -dGr. Energy density: -dGr times the amount of reaction the limiting reactant allows
+per kg of water, min over consumed dissolved species of (molality / |nu|); water, H+ and solids
+are not limiting. Zero, and flagged, where the reaction is not exergonic.
+"""
+
+from dataclasses import dataclass
+
+import numpy as np
+import pandas as pd
+
+from ..species.database import R_J_MOL_K, default_database
+from ..species.properties import standard_properties
+
+__all__ = ["InsituEnergetics", "insitu_energetics", "gibbs_energy_kernel", "energy_density_kernel",
+           "DEFAULT_MINIMUM_ENERGY_KJ"]
+
+LN10 = np.log(10.0)
+#: Smallest |dGr| a catabolism is taken to use, per mole of reaction as written (Hoehler 2004,
+#: Geobiology 2, 205: about -10 kJ/mol for methanogens in sediments; from memory). User-settable.
+DEFAULT_MINIMUM_ENERGY_KJ = 10.0
+NOT_LIMITING = ("H2O(l)", "H+")
+
+
+def gibbs_energy_kernel(dG0, log10_a, nu, T_K):
+    """dGr [J/mol] and log10 Q of reactions: dG0 (n, r) [J/mol], log10_a (n, s), nu (s, r), T (n,)."""
+    log_q = log10_a @ nu
+    return dG0 + R_J_MOL_K * LN10 * T_K[:, None] * log_q, log_q
+
+
+def energy_density_kernel(dGr, amounts, nu_consumed):
+    """Energy density [J/kg water] from dGr (n, r), amounts (n, s) [mol/kg] and |nu| of consumed
+    species (s, r; 0 where a species is not consumed or not limiting). Returns (J/kg, index of the
+    limiting species (n, r))."""
+    with np.errstate(divide="ignore", invalid="ignore"):
+        extent = np.where(nu_consumed[None] > 0, amounts[:, :, None] / nu_consumed[None], np.inf)
+    limiting = np.argmin(extent, axis=1)
+    allowed = np.take_along_axis(extent, limiting[:, None, :], axis=1)[:, 0, :]
+    allowed = np.where(np.isfinite(allowed), allowed, 0.0)
+    return np.where(dGr < 0, -dGr * allowed, 0.0), limiting
+
+
+@dataclass
+class InsituEnergetics:
+    """Per sample x reaction results (arrays (n, r)), with the reactions and sample context."""
+
+    samples: list
+    reactions: list                 # NamedReaction
+    T_K: np.ndarray
+    P_bar: np.ndarray
+    dG0: np.ndarray
+    log10_Q: np.ndarray
+    dGr: np.ndarray
+    electrons: np.ndarray           # (r,)
+    limiting_species: np.ndarray    # object (n, r)
+    energy_density_J_per_kg: np.ndarray
+    water_per_kg_solution: np.ndarray   # (n,) kg water per kg solution
+    density_kg_L: np.ndarray            # (n,)
+    missing_species: np.ndarray     # object (n, r): comma-joined names without an activity
+    minimum_energy_kJ: float
+    flags: np.ndarray               # object (n, r): caveats of the standard-state data
+
+    @property
+    def dGr_per_electron(self):
+        with np.errstate(divide="ignore", invalid="ignore"):
+            return np.where(self.electrons > 0, self.dGr / self.electrons, np.nan)
+
+    def to_frame(self):
+        n, r = self.dGr.shape
+        rep = lambda a: np.repeat(a, r)
+        til = lambda a: np.tile(a, n)
+        E = self.energy_density_J_per_kg
+        W = self.water_per_kg_solution[:, None]
+        rho = self.density_kg_L[:, None]
+        frame = pd.DataFrame({
+            "sample": rep(self.samples), "reaction": til([x.name for x in self.reactions]),
+            "equation": til([str(x.reaction) for x in self.reactions]),
+            "T_C": rep(self.T_K - 273.15), "P_bar": rep(self.P_bar),
+            "dG0_kJ_per_mol": self.dG0.ravel() / 1e3, "log10_Q": self.log10_Q.ravel(),
+            "dGr_kJ_per_mol": self.dGr.ravel() / 1e3,
+            "dGr_kJ_per_mol_e": self.dGr_per_electron.ravel() / 1e3,
+            "electrons": til(self.electrons), "limiting_species": self.limiting_species.ravel(),
+            "energy_density_J_per_kg": E.ravel(),
+            "energy_density_J_per_kg_solution": (E * W).ravel(),
+            "energy_density_J_per_L": (E * W * rho).ravel(),
+            "exergonic": (self.dGr < 0).ravel(),
+            "below_minimum_energy": (np.abs(self.dGr) < self.minimum_energy_kJ * 1e3).ravel(),
+            "missing_species": self.missing_species.ravel(), "flags": self.flags.ravel()})
+        return frame
+
+    def per_species(self, species):
+        """dGr per mole of ``species`` [kJ/mol] (n, r); NaN where it does not take part."""
+        coef = np.array([abs(x.reaction.coefficient(species)) for x in self.reactions])
+        with np.errstate(divide="ignore", invalid="ignore"):
+            return np.where(coef > 0, self.dGr / coef / 1e3, np.nan)
+
+
+def _activity_columns(result, names, db, gas_fugacity):
+    """log10 activities (n, s) of ``names`` from a speciation result; NaN where unknown."""
+    n = len(result.samples)
+    la = np.full((n, len(names)), np.nan)
+    amounts = np.zeros((n, len(names)))
+    index = {sp: j for j, sp in enumerate(result.species)}
+    activity = result.log10_activity
+    for j, name in enumerate(names):
+        rec = db.record(name)
+        if name == "H2O(l)":
+            la[:, j] = result.log10_water_activity
+        elif rec.state == "solid":
+            la[:, j] = 0.0
+        elif rec.state == "gas":
+            if name in gas_fugacity:
+                with np.errstate(divide="ignore"):
+                    la[:, j] = np.log10(gas_fugacity[name])
+        elif name in index:
+            k = index[name]
+            la[:, j] = np.where(result.present[:, k], activity[:, k], np.nan)
+            # a component master may react as a whole: its pool is the analytical total
+            amounts[:, j] = result.totals.get(name, result.molality[:, k])
+    return la, amounts
+
+
+def insitu_energetics(result, reactions, db=None, minimum_energy_kJ=DEFAULT_MINIMUM_ENERGY_KJ,
+                      gas_fugacity=None, water_per_kg_solution=None, density_kg_L=None):
+    """Gibbs energies and energy densities of ``reactions`` (NamedReaction) in speciated samples."""
+    db = default_database() if db is None else db
+    names = sorted({s for x in reactions for s in x.reaction.species})
+    nu = np.zeros((len(names), len(reactions)))
+    for r, x in enumerate(reactions):
+        for s, c in zip(x.reaction.species, x.reaction.coefficients):
+            nu[names.index(s), r] = c
+    props = standard_properties(names, result.T_K, result.P_bar, db=db, properties=("G",))
+    dG0 = props.G @ nu
+    la, amounts = _activity_columns(result, names, db, gas_fugacity or {})
+    dGr, log_q = gibbs_energy_kernel(dG0, np.nan_to_num(la, nan=0.0), nu, result.T_K)
+    missing_mask = np.isnan(la)[:, :, None] & (nu[None] != 0)
+    unknown = missing_mask.any(axis=1)
+    dGr = np.where(unknown, np.nan, dGr)
+    log_q = np.where(unknown, np.nan, log_q)
+    consumed = np.where(nu < 0, -nu, 0.0)
+    for j, name in enumerate(names):
+        if name in NOT_LIMITING or db.record(name).state != "aq":
+            consumed[j] = 0.0
+    E, limiting = energy_density_kernel(np.nan_to_num(dGr, nan=0.0), amounts, consumed)
+    E = np.where(unknown, np.nan, E)
+    has_consumed = (consumed > 0).any(axis=0)
+    limiting_names = np.where(has_consumed[None, :], np.array(names, dtype=object)[limiting], "")
+    missing = np.empty(dGr.shape, dtype=object)
+    flag_text = np.empty(dGr.shape, dtype=object)
+    flag_any = {k: (v.astype(float) @ (nu != 0)) > 0 for k, v in props.flags.items()}
+    for i in range(dGr.shape[0]):     # text columns only; the numbers above are vectorized
+        for r in range(dGr.shape[1]):
+            missing[i, r] = ", ".join(names[j] for j in np.flatnonzero(missing_mask[i, :, r]))
+            flag_text[i, r] = ", ".join(k for k, v in flag_any.items() if v[i, r])
+    n = len(result.samples)
+    return InsituEnergetics(
+        samples=result.samples, reactions=list(reactions), T_K=result.T_K, P_bar=result.P_bar,
+        dG0=dG0, log10_Q=log_q, dGr=dGr, electrons=np.array([x.electrons for x in reactions]),
+        limiting_species=limiting_names, energy_density_J_per_kg=E,
+        water_per_kg_solution=np.ones(n) if water_per_kg_solution is None else water_per_kg_solution,
+        density_kg_L=np.ones(n) if density_kg_L is None else density_kg_L,
+        missing_species=missing, minimum_energy_kJ=minimum_energy_kJ, flags=flag_text)
