@@ -6,14 +6,17 @@ import sys
 
 import numpy as np
 
+from ..energetics.catalog import catalog, enumerate_reactions, resolve_reactions
+from ..energetics.insitu import DEFAULT_MINIMUM_ENERGY_KJ, insitu_energetics
 from ..errors import RedoxGibbsError
 from ..reactions.reaction import Reaction, reaction_properties
+from ..species.database import default_database
+from ..speciation.samples import read_samples
 from ..speciation.solver import speciate
+from .report import SCREENING_NOTE
 
 __all__ = ["main"]
 
-SCREENING_NOTE = ("Screening estimates of thermodynamic potential, not evidence of life or of "
-                  "rates. Field sampling near hot fluids follows local rules and trained practice.")
 
 
 def _number_list(text, field):
@@ -67,6 +70,55 @@ def _speciation(args):
     return 0
 
 
+def _insitu(args):
+    samples = read_samples(args.samples)
+    result = speciate(samples, args.activity_model, pH_from_charge_balance=args.pH_from_charge_balance)
+    W, rho = samples.water_fraction_and_density(default_database())
+    energetics = insitu_energetics(result, resolve_reactions(args.reaction),
+                                   minimum_energy_kJ=args.minimum_energy, gas_fugacity=samples.gas_fugacity_bar,
+                                   water_per_kg_solution=W, density_kg_L=rho)
+    frame = energetics.to_frame()
+    if args.format == "csv":
+        sys.stdout.write(frame.to_csv(index=False, float_format="%.6g"))
+    else:
+        cols = ["sample", "reaction", "T_C", "dGr_kJ_per_mol", "dGr_kJ_per_mol_e", "limiting_species",
+                "energy_density_J_per_kg", "missing_species"]
+        print(frame[cols].to_string(index=False, float_format=lambda v: f"{v:.4g}"))
+        print("\nenergy_density_J_per_kg is per kg of water. " + SCREENING_NOTE)
+    return 0
+
+
+def _reactions(args):
+    if args.donor or args.acceptor:
+        entries = enumerate_reactions(args.donor or None, args.acceptor or None)
+    else:
+        entries = catalog()
+    for e in entries:
+        print(f"{e.name:<52} {e.electrons:5.3g} e-   {e.reaction}")
+    return 0
+
+
+def _assess(args):
+    from .assess import run_assessment
+    from .report import write_outputs
+
+    report = write_outputs(run_assessment(args.scenario, quiet=args.quiet), args.out)
+    print(f"report: {report}")
+    return 0
+
+
+def _demo(args):
+    from importlib import resources
+
+    from .assess import run_assessment
+    from .report import write_outputs
+
+    scenario = resources.files("redoxgibbs.examples") / "demo_scenario.toml"
+    report = write_outputs(run_assessment(str(scenario), quiet=args.quiet), args.out)
+    print(f"demo report: {report.resolve()}")
+    return 0
+
+
 def _parser():
     parser = argparse.ArgumentParser(
         prog="redoxgibbs",
@@ -88,6 +140,29 @@ def _parser():
     spc.add_argument("--format", choices=("table", "csv"), default="table")
     spc.add_argument("--top", type=int, default=8, help="species listed per sample in the table view")
     spc.set_defaults(run=_speciation)
+    ins = sub.add_parser("insitu", help="in-situ Gibbs energies and energy densities of reactions")
+    ins.add_argument("samples", help="CSV as for 'speciation'")
+    ins.add_argument("--reaction", action="append", required=True,
+                     help="a catalog name or a reaction string; repeat for several")
+    ins.add_argument("--activity-model", choices=("ideal", "davies", "bdot"), default="bdot")
+    ins.add_argument("--pH-from-charge-balance", action="store_true")
+    ins.add_argument("--minimum-energy", type=float, default=DEFAULT_MINIMUM_ENERGY_KJ,
+                     help="kJ per mol of reaction below which |dGr| is flagged (default %(default)s)")
+    ins.add_argument("--format", choices=("table", "csv"), default="table")
+    ins.set_defaults(run=_insitu)
+    rxn = sub.add_parser("reactions", help="list the reaction catalog, or enumerate donor x acceptor pairs")
+    rxn.add_argument("--donor", action="append", help="redox couple giving electrons, e.g. H+/H2")
+    rxn.add_argument("--acceptor", action="append", help="redox couple taking electrons, e.g. O2/H2O")
+    rxn.set_defaults(run=_reactions)
+    ass = sub.add_parser("assess", help="run a scenario file into a folder of results and a report")
+    ass.add_argument("scenario", help="scenario TOML (see examples/demo_scenario.toml)")
+    ass.add_argument("--out", required=True, help="output folder")
+    ass.add_argument("--quiet", action="store_true", help="no progress lines")
+    ass.set_defaults(run=_assess)
+    demo = sub.add_parser("demo", help="run the bundled demo scenario (invented sites)")
+    demo.add_argument("--out", default="redoxgibbs-demo", help="output folder (default %(default)s)")
+    demo.add_argument("--quiet", action="store_true")
+    demo.set_defaults(run=_demo)
     return parser
 
 

@@ -61,6 +61,15 @@ class SampleSet:
     def __len__(self):
         return len(self.names)
 
+    def water_fraction_and_density(self, db):
+        """kg water per kg solution and density [kg/L] (measured, or estimated as on reading)."""
+        mass = sum(np.nan_to_num(m) * molar_mass_g_mol(db.record(s).elements) / 1000.0
+                   for s, m in self.totals.items())
+        W = 1.0 / (1.0 + mass)
+        rho = np.where(np.isnan(self.density_kg_L), 0.997 + SEAWATER_DENSITY_SLOPE * (1 - W),
+                       self.density_kg_L)
+        return W, rho
+
 
 def _numeric(frame, column, row_labels, allow_blank=True, low=None, high=None, what="value"):
     raw = frame[column]

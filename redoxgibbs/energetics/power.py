@@ -1,0 +1,114 @@
+"""Power from a fluid supply, and the number of cells it could sustain.
+
+Supply models (each states itself in the output):
+- ``flow-through``: fluid mass flux F [kg/s] through a habitat volume V [m3]: P/V = e_solution F / V
+- ``turnover``: the fluid's reactant pool renewed every tau [s]: P/V = e_litre * 1000 / tau
+- ``areal-flux``: a flux J [mol m-2 yr-1] of the limiting reactant into a layer of thickness h [m]:
+  P/V = (-dGr / |nu_limiting|) J / (h * 1 yr)
+- ``rate``: a measured or assumed reaction rate r [mol L-1 s-1]: P/V = -dGr r * 1000
+where e is the energy density (per kg of solution or per litre). Output W/m3 and W/kg of fluid.
+
+Per-cell requirements (a low-high range, never one number):
+- ``tijhuis1993``: maintenance Gibbs energy m_G = 4.5 exp[(69400/R)(1/298.15 - 1/T)] kJ per
+  C-mol of biomass per hour (Tijhuis, van Loosdrecht & Heijnen 1993, Biotechnol. Bioeng. 42, 509,
+  eq. for aerobic and anaerobic growth; from memory), times a cell's carbon [C-mol]
+- ``basal``: a basal power per cell from the range of LaRowe & Amend (2015) Front. Microbiol. 6, 718
+  (about 1e-21 to 1e-19 W per cell in marine sediments; from memory)
+"""
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from ..errors import InputError
+
+__all__ = ["Supply", "power_per_volume", "CellRequirement", "power_per_cell_W", "SECONDS_PER_YEAR"]
+
+R = 8.31446261815324
+SECONDS_PER_YEAR = 365.25 * 86400
+TIJHUIS_MG_KJ_PER_CMOL_H = 4.5
+TIJHUIS_EA_J_PER_MOL = 69400.0
+CARBON_G_PER_MOL = 12.011
+BASAL_W_PER_CELL = (1e-21, 1e-19)
+CELL_CARBON_G = (1e-14, 1e-13)   # 10-100 fg C per cell, small environmental cells (common practice)
+
+
+@dataclass(frozen=True)
+class Supply:
+    """A fluid-supply model: ``kind`` and its parameters in SI-named fields."""
+
+    kind: str
+    flux_kg_per_s: float = np.nan
+    volume_m3: float = np.nan
+    tau_s: float = np.nan
+    areal_flux_mol_per_m2_yr: float = np.nan
+    thickness_m: float = np.nan
+    limiting_species: str = ""
+    rate_mol_per_L_s: float = np.nan
+
+    def describe(self):
+        if self.kind == "flow-through":
+            return f"flow-through: {self.flux_kg_per_s:g} kg/s through {self.volume_m3:g} m3"
+        if self.kind == "turnover":
+            return f"turnover: reactant pool renewed every {self.tau_s:g} s"
+        if self.kind == "areal-flux":
+            return (f"areal flux: {self.areal_flux_mol_per_m2_yr:g} mol/m2/yr of {self.limiting_species} "
+                    f"into {self.thickness_m:g} m")
+        if self.kind == "rate":
+            return f"reaction rate: {self.rate_mol_per_L_s:g} mol/L/s"
+        raise InputError(f"supply kind {self.kind!r} is unknown; use flow-through, turnover, areal-flux or rate")
+
+
+def power_per_volume(supply, energetics):
+    """Power [W/m3] per sample x reaction for a supply model and an InsituEnergetics result."""
+    e_kg = energetics.energy_density_J_per_kg * energetics.water_per_kg_solution[:, None]
+    e_L = e_kg * energetics.density_kg_L[:, None]
+    affinity = np.where(energetics.dGr < 0, -energetics.dGr, 0.0)
+    supply.describe()  # validates the kind
+    if supply.kind == "flow-through":
+        return e_kg * supply.flux_kg_per_s / supply.volume_m3
+    if supply.kind == "turnover":
+        return e_L * 1000.0 / supply.tau_s
+    if supply.kind == "areal-flux":
+        nu = np.array([abs(x.reaction.coefficient(supply.limiting_species)) for x in energetics.reactions])
+        if not nu.any():
+            raise InputError(f"supply: {supply.limiting_species} takes part in none of the reactions")
+        with np.errstate(divide="ignore", invalid="ignore"):
+            per_mol = np.where(nu > 0, affinity / nu, np.nan)
+        return per_mol * supply.areal_flux_mol_per_m2_yr / (supply.thickness_m * SECONDS_PER_YEAR)
+    return affinity * supply.rate_mol_per_L_s * 1000.0
+
+
+@dataclass(frozen=True)
+class CellRequirement:
+    """A per-cell power model: ``tijhuis1993`` (with a cell-carbon range) or ``basal``."""
+
+    model: str = "tijhuis1993"
+    cell_carbon_g: tuple = CELL_CARBON_G
+    basal_W: tuple = BASAL_W_PER_CELL
+
+    def describe(self):
+        if self.model == "tijhuis1993":
+            lo, hi = self.cell_carbon_g
+            return f"maintenance power, Tijhuis et al. (1993), cells of {lo:g}-{hi:g} g C"
+        if self.model == "basal":
+            return f"basal power {self.basal_W[0]:g}-{self.basal_W[1]:g} W per cell, LaRowe & Amend (2015)"
+        raise InputError(f"cell requirement model {self.model!r} is unknown; use tijhuis1993 or basal")
+
+
+def maintenance_tijhuis_1993_W_per_Cmol(T_K):
+    """Maintenance Gibbs-energy demand [W per C-mol of biomass] (Tijhuis et al. 1993)."""
+    T = np.asarray(T_K, float)
+    kJ_per_h = TIJHUIS_MG_KJ_PER_CMOL_H * np.exp(TIJHUIS_EA_J_PER_MOL / R * (1 / 298.15 - 1 / T))
+    return kJ_per_h * 1000.0 / 3600.0
+
+
+def power_per_cell_W(requirement, T_K):
+    """(low, high) power demand per cell [W] at temperatures T_K (arrays)."""
+    requirement.describe()
+    if requirement.model == "tijhuis1993":
+        per_cmol = maintenance_tijhuis_1993_W_per_Cmol(T_K)
+        lo, hi = requirement.cell_carbon_g
+        return per_cmol * lo / CARBON_G_PER_MOL, per_cmol * hi / CARBON_G_PER_MOL
+    T = np.asarray(T_K, float)
+    return np.full(T.shape, requirement.basal_W[0]), np.full(T.shape, requirement.basal_W[1])

@@ -1,0 +1,68 @@
+"""The main job: a scenario in, a folder of results, rankings, plots and a report out."""
+
+import sys
+from dataclasses import dataclass
+
+import numpy as np
+import pandas as pd
+
+from ..energetics.insitu import insitu_energetics
+from ..energetics.power import power_per_cell_W, power_per_volume
+from ..species.database import default_database
+from ..speciation.samples import read_samples
+from ..speciation.solver import speciate
+from .scenario import load_scenario
+
+__all__ = ["Assessment", "run_assessment"]
+
+
+@dataclass
+class Assessment:
+    scenario: object
+    sample_set: object
+    speciation: object
+    energetics: object
+    results: pd.DataFrame
+
+
+def _progress(step, total, text, quiet):
+    if not quiet:
+        print(f"[{step}/{total}] {text}", file=sys.stderr, flush=True)
+
+
+def run_assessment(scenario_path, quiet=False):
+    """Run a scenario file; returns an :class:`Assessment` (nothing is written here)."""
+    db = default_database()
+    steps = 4
+    _progress(1, steps, f"reading scenario {scenario_path}", quiet)
+    scenario = load_scenario(scenario_path)
+    samples = read_samples(scenario.samples.drop(columns=["site"]), db=db)
+    _progress(2, steps, f"speciating {len(samples)} samples ({scenario.activity_model})", quiet)
+    result = speciate(samples, scenario.activity_model)
+    _progress(3, steps, f"Gibbs energies of {len(scenario.reactions)} reactions", quiet)
+    W, rho = samples.water_fraction_and_density(db)
+    energetics = insitu_energetics(result, scenario.reactions, db=db,
+                                   minimum_energy_kJ=scenario.minimum_energy_kJ,
+                                   gas_fugacity=samples.gas_fugacity_bar,
+                                   water_per_kg_solution=W, density_kg_L=rho)
+    _progress(4, steps, f"power and cells for {len(scenario.supplies)} supply models", quiet)
+    base = energetics.to_frame()
+    base.insert(0, "site", np.repeat(scenario.samples["site"].to_numpy(), len(scenario.reactions)))
+    frames = []
+    low_W, high_W = power_per_cell_W(scenario.cells, result.T_K)
+    for supply in scenario.supplies or [None]:
+        frame = base.copy()
+        if supply is None:
+            frame["supply"] = "none given"
+            for col in ("power_W_per_m3", "power_W_per_kg", "cells_per_m3_low", "cells_per_m3_high"):
+                frame[col] = np.nan
+        else:
+            P = power_per_volume(supply, energetics)
+            frame["supply"] = supply.describe()
+            frame["power_W_per_m3"] = P.ravel()
+            frame["power_W_per_kg"] = (P / (rho[:, None] * 1000.0)).ravel()
+            frame["cells_per_m3_low"] = (P / high_W[:, None]).ravel()
+            frame["cells_per_m3_high"] = (P / low_W[:, None]).ravel()
+        frame["cell_model"] = scenario.cells.describe()
+        frames.append(frame)
+    return Assessment(scenario, samples, result, energetics, pd.concat(frames, ignore_index=True))

@@ -1,0 +1,205 @@
+"""Outputs of ``assess``: results and rankings as CSV, plots as PNG and SVG, report.html and .md."""
+
+import html
+import io
+from pathlib import Path
+
+import matplotlib
+
+matplotlib.use("Agg")
+import matplotlib.pyplot as plt  # noqa: E402
+import numpy as np  # noqa: E402
+import pandas as pd  # noqa: E402
+
+from ..species.database import default_database  # noqa: E402
+
+__all__ = ["write_outputs", "SCREENING_NOTE"]
+
+SCREENING_NOTE = ("These are screening estimates of thermodynamic potential, not evidence of life "
+                  "or of rates. Field sampling near hot fluids follows local rules and trained practice.")
+
+
+def _save(fig, out, stem):
+    fig.tight_layout()
+    fig.savefig(out / f"{stem}.png", dpi=110)
+    buf = io.StringIO()
+    fig.savefig(buf, format="svg")
+    (out / f"{stem}.svg").write_text(buf.getvalue())
+    plt.close(fig)
+    return buf.getvalue()
+
+
+def _label(frame):
+    return frame["site"] + " / " + frame["sample"]
+
+
+def _plots(first, out):
+    """The four figures; ``first`` holds one row per sample x reaction (first supply)."""
+    svgs = {}
+    first = first.assign(label=_label(first))
+    reactions = list(dict.fromkeys(first["reaction"]))
+    labels = list(dict.fromkeys(first["label"]))
+    pivot = first.pivot_table(index="reaction", columns="label", values="dGr_kJ_per_mol_e",
+                              aggfunc="first").reindex(index=reactions, columns=labels)
+    height = max(3.0, 0.22 * len(reactions) + 1.5)
+    fig, ax = plt.subplots(figsize=(9, height))
+    for j, lab in enumerate(labels):
+        ax.scatter(pivot[lab], np.arange(len(reactions)), s=18, label=lab)
+    ax.axvline(0, color="k", lw=0.8)
+    ax.set_yticks(np.arange(len(reactions)), reactions, fontsize=7)
+    ax.invert_yaxis()
+    ax.set_xlabel("dGr [kJ per mol e-]")
+    ax.set_title("In-situ Gibbs energy per electron")
+    ax.legend(fontsize=7, loc="lower left")
+    svgs["gibbs_per_electron"] = _save(fig, out, "gibbs_per_electron")
+
+    fig, ax = plt.subplots(figsize=(9, height))
+    energy = first.pivot_table(index="reaction", columns="label", values="energy_density_J_per_kg",
+                               aggfunc="first").reindex(index=reactions, columns=labels)
+    width = 0.8 / max(len(labels), 1)
+    for j, lab in enumerate(labels):
+        vals = energy[lab].where(energy[lab] > 0)
+        ax.barh(np.arange(len(reactions)) + j * width, vals, height=width, label=lab)
+    ax.set_xscale("log")
+    ax.set_yticks(np.arange(len(reactions)) + 0.4 - width / 2, reactions, fontsize=7)
+    ax.invert_yaxis()
+    ax.set_xlabel("energy density [J per kg H2O]")
+    ax.set_title("Energy available per kilogram of fluid")
+    ax.legend(fontsize=7)
+    svgs["energy_density"] = _save(fig, out, "energy_density")
+
+    fig, ax = plt.subplots(figsize=(max(5, 1.2 * len(labels) + 4), height))
+    data = pivot.to_numpy(dtype=float)
+    lim = np.nanmax(np.abs(data)) if np.isfinite(data).any() else 1.0
+    im = ax.imshow(data, aspect="auto", cmap="RdBu", vmin=-lim, vmax=lim)
+    ax.set_yticks(np.arange(len(reactions)), reactions, fontsize=7)
+    ax.set_xticks(np.arange(len(labels)), labels, rotation=30, ha="right", fontsize=7)
+    fig.colorbar(im, ax=ax, label="dGr [kJ per mol e-]")
+    ax.set_title("Reactions x samples (blank: a species not measured)")
+    svgs["heat_map"] = _save(fig, out, "heat_map")
+
+    fig, axes = plt.subplots(1, 2, figsize=(11, height))
+    power = first.pivot_table(index="reaction", columns="label", values="power_W_per_m3",
+                              aggfunc="first").reindex(index=reactions, columns=labels)
+    cells = first.pivot_table(index="reaction", columns="label", values="cells_per_m3_high",
+                              aggfunc="first").reindex(index=reactions, columns=labels)
+    for ax, table, xlabel in ((axes[0], power, "power [W/m3]"), (axes[1], cells, "cells per m3 (high end)")):
+        for j, lab in enumerate(labels):
+            vals = table[lab].where(table[lab] > 0)
+            ax.barh(np.arange(len(reactions)) + j * width, vals, height=width, label=lab)
+        ax.set_xscale("log")
+        ax.set_yticks(np.arange(len(reactions)) + 0.4 - width / 2, reactions, fontsize=7)
+        ax.invert_yaxis()
+        ax.set_xlabel(xlabel)
+    axes[0].set_title("Power delivered by the supply")
+    axes[1].set_title("Cells it could sustain")
+    axes[0].legend(fontsize=7)
+    svgs["power_and_cells"] = _save(fig, out, "power_and_cells")
+    return svgs
+
+
+def _rankings(first, out):
+    valid = first[first["exergonic"]]
+    by_site = valid.sort_values(["site", "sample", "energy_density_J_per_kg"], ascending=[True, True, False])
+    by_site = by_site.assign(rank=by_site.groupby(["site", "sample"]).cumcount() + 1)
+    cols = ["site", "sample", "rank", "reaction", "dGr_kJ_per_mol", "dGr_kJ_per_mol_e",
+            "energy_density_J_per_kg", "power_W_per_m3"]
+    by_site[cols].to_csv(out / "ranking_reactions_per_site.csv", index=False)
+    by_rxn = valid.sort_values(["reaction", "energy_density_J_per_kg"], ascending=[True, False])
+    by_rxn = by_rxn.assign(rank=by_rxn.groupby("reaction").cumcount() + 1)
+    by_rxn[["reaction", "rank", "site", "sample", "energy_density_J_per_kg", "dGr_kJ_per_mol_e"]].to_csv(
+        out / "ranking_sites_per_reaction.csv", index=False)
+    return by_site[cols]
+
+
+def _sources(assessment):
+    db = default_database()
+    used = sorted({s for x in assessment.scenario.reactions for s in x.reaction.species}
+                  | set(assessment.speciation.species))
+    rows = []
+    for name in used:
+        rec = db.record(name)
+        rows.append({"species": name, "model": rec.model, "source": rec.source,
+                     "entered from memory": "yes" if rec.from_memory else ""})
+    return pd.DataFrame(rows)
+
+
+def _table_html(frame, max_rows=60):
+    return frame.head(max_rows).to_html(index=False, float_format=lambda v: f"{v:.4g}", border=0,
+                                        classes="data", na_rep="")
+
+
+def write_outputs(assessment, out_dir):
+    """Write every output of an assessment into ``out_dir``; returns the path of report.html."""
+    out = Path(out_dir)
+    out.mkdir(parents=True, exist_ok=True)
+    results = assessment.results
+    results.to_csv(out / "results.csv", index=False)
+    first_supply = results["supply"].iloc[0]
+    first = results[results["supply"] == first_supply]
+    ranking = _rankings(first, out)
+    svgs = _plots(first, out)
+    sc = assessment.scenario
+    summary = assessment.speciation.summary_frame()
+    summary.insert(0, "site", sc.samples["site"].to_numpy())
+    flagged = first[(first["flags"] != "") | (first["missing_species"] != "") | first["below_minimum_energy"]]
+    sources = _sources(assessment)
+    assumptions = [
+        f"Activity model: {assessment.speciation.activity_model} (samples beyond its ionic-strength "
+        f"range are flagged in the speciation table).",
+        "Standard states: aqueous 1 molal ideal (revised HKF or formation reactions), gases 1 bar "
+        "ideal, solids and water pure phases; water from IAPWS-95.",
+        "Redox couples are not equilibrated with each other; pH measured at another temperature is "
+        "carried to in-situ conditions at constant totals and charge balance.",
+        "Energy density: -dGr times the amount of reaction allowed by the limiting dissolved "
+        "reactant (component totals for measured species); zero where not exergonic.",
+        f"Minimum usable energy: {sc.minimum_energy_kJ:g} kJ per mol of reaction (Hoehler 2004).",
+        "Supply models: " + ("; ".join(s.describe() for s in sc.supplies) or "none given") + ".",
+        f"Per-cell requirement: {sc.cells.describe()}; cell numbers are given as a low-high range.",
+    ]
+    figure_html = "\n".join(f'<figure><div class="plot">{svg[svg.find("<svg"):]}</div>'
+                            f"<figcaption>{html.escape(k.replace('_', ' '))}</figcaption></figure>"
+                            for k, svg in svgs.items())
+    page = f"""<!DOCTYPE html>
+<html lang="en"><head><meta charset="utf-8"><title>{html.escape(sc.title)}</title>
+<style>
+body {{ font-family: sans-serif; margin: 2em; max-width: 1200px; }}
+table.data {{ border-collapse: collapse; font-size: 12px; margin: 1em 0; }}
+table.data td, table.data th {{ border-bottom: 1px solid #ccc; padding: 2px 6px; text-align: right; }}
+.caution {{ background: #fff4d6; border-left: 4px solid #e0a800; padding: 0.6em 1em; }}
+figure {{ margin: 1.5em 0; }} .plot svg {{ max-width: 100%; height: auto; }}
+</style></head><body>
+<h1>{html.escape(sc.title)}</h1>
+<p class="caution">{html.escape(SCREENING_NOTE)}</p>
+<h2>Inputs</h2>
+<p>Scenario file: {html.escape(str(sc.source))}; {len(summary)} samples, {len(sc.reactions)} reactions.</p>
+{_table_html(sc.samples)}
+<h2>Assumptions</h2>
+<ul>{''.join(f'<li>{html.escape(a)}</li>' for a in assumptions)}</ul>
+<h2>Speciation</h2>
+{_table_html(summary)}
+<h2>Most energy per kilogram of fluid, per sample</h2>
+{_table_html(ranking.groupby(['site', 'sample']).head(5))}
+<h2>Figures</h2>
+{figure_html}
+<h2>Validity flags</h2>
+<p>Rows with standard-state caveats, species without a measured activity, or |dGr| below the
+minimum usable energy.</p>
+{_table_html(flagged[['site', 'sample', 'reaction', 'dGr_kJ_per_mol', 'below_minimum_energy', 'missing_species', 'flags']])}
+<h2>Data sources of the species used</h2>
+{_table_html(sources, max_rows=500)}
+<h2>Cautions</h2>
+<p class="caution">{html.escape(SCREENING_NOTE)} Values entered from memory are marked above and
+checked against outside references in the project's tests; see DEVELOPERS.md for known departures.</p>
+</body></html>
+"""
+    (out / "report.html").write_text(page)
+    md = [f"# {sc.title}", "", f"> {SCREENING_NOTE}", "", "## Assumptions", ""]
+    md += [f"- {a}" for a in assumptions]
+    md += ["", "## Most energy per kilogram of fluid, per sample", "",
+           ranking.groupby(["site", "sample"]).head(5).to_markdown(index=False, floatfmt=".4g"), "",
+           "## Figures", ""]
+    md += [f"![{k}]({k}.png)" for k in svgs]
+    md += ["", "## Data sources", "", sources.to_markdown(index=False), ""]
+    (out / "report.md").write_text("\n".join(md))
+    return out / "report.html"

@@ -1,0 +1,112 @@
+"""Scenario files (TOML) of the ``assess`` command: sites, reactions, supply and cell models.
+
+Schema (annotated example: examples/demo_scenario.toml):
+- ``title``, ``activity_model`` (ideal | davies | bdot), ``minimum_energy_kJ_per_mol``
+- ``[[sites]]``: ``name`` and either ``samples`` (a CSV path, relative to the scenario file) or an
+  inline ``[sites.fluid]`` table with the same columns as a sample CSV (one sample)
+- ``[reactions]``: ``catalog`` (a list of names, or "all"), ``custom`` (reaction strings),
+  ``[reactions.enumerate]`` with ``donors`` and ``acceptors`` (redox-couple names, or "all")
+- ``[[supply]]``: ``kind`` = flow-through | turnover | areal-flux | rate and its parameters
+- ``[cells]``: ``model`` = tijhuis1993 (with ``cell_carbon_g`` = [low, high]) or basal
+  (with ``basal_W`` = [low, high])
+"""
+
+import sys
+from dataclasses import dataclass, field
+from pathlib import Path
+
+import pandas as pd
+
+from ..energetics.catalog import catalog, enumerate_reactions, resolve_reactions
+from ..energetics.insitu import DEFAULT_MINIMUM_ENERGY_KJ
+from ..energetics.power import CellRequirement, Supply
+from ..errors import InputError
+
+if sys.version_info >= (3, 11):
+    import tomllib
+else:  # pragma: no cover
+    import tomli as tomllib
+
+__all__ = ["Scenario", "load_scenario"]
+
+_SUPPLY_FIELDS = {"flux_kg_per_s", "volume_m3", "tau_s", "areal_flux_mol_per_m2_yr", "thickness_m",
+                  "limiting_species", "rate_mol_per_L_s"}
+
+
+@dataclass
+class Scenario:
+    title: str
+    samples: pd.DataFrame          # all sites' samples, with a 'site' column
+    reactions: list                # NamedReaction
+    activity_model: str
+    supplies: list = field(default_factory=list)
+    cells: CellRequirement = field(default_factory=CellRequirement)
+    minimum_energy_kJ: float = DEFAULT_MINIMUM_ENERGY_KJ
+    source: Path = None
+
+
+def _site_frame(site, folder):
+    name = site.get("name")
+    if not name:
+        raise InputError("scenario: every [[sites]] entry needs a name")
+    if "samples" in site:
+        path = (folder / site["samples"]).resolve()
+        if not path.exists():
+            raise InputError(f"scenario: site {name!r}: samples file {path} does not exist")
+        frame = pd.read_csv(path, skipinitialspace=True)
+    elif "fluid" in site:
+        frame = pd.DataFrame([{"sample": name, **site["fluid"]}])
+    else:
+        raise InputError(f"scenario: site {name!r} needs 'samples' (a CSV file) or a [sites.fluid] table")
+    frame.insert(0, "site", name)
+    return frame
+
+
+def _reactions(spec):
+    out = []
+    chosen = spec.get("catalog", [])
+    if chosen == "all":
+        out.extend(catalog())
+    else:
+        out.extend(resolve_reactions(chosen))
+    out.extend(resolve_reactions(spec.get("custom", [])))
+    enum = spec.get("enumerate")
+    if enum:
+        pick = lambda v: None if v in (None, "all") else list(v)
+        out.extend(enumerate_reactions(pick(enum.get("donors")), pick(enum.get("acceptors"))))
+    if not out:
+        raise InputError("scenario: [reactions] names no reactions (catalog, custom or enumerate)")
+    return out
+
+
+def load_scenario(path):
+    """Read and check a scenario TOML file."""
+    path = Path(path)
+    try:
+        data = tomllib.loads(path.read_text())
+    except FileNotFoundError:
+        raise InputError(f"scenario: file {path} does not exist") from None
+    except tomllib.TOMLDecodeError as err:
+        raise InputError(f"scenario: {path} is not valid TOML: {err}") from None
+    sites = data.get("sites") or []
+    if not sites:
+        raise InputError("scenario: at least one [[sites]] entry is needed")
+    frame = pd.concat([_site_frame(s, path.parent) for s in sites], ignore_index=True)
+    supplies = []
+    for s in data.get("supply", []):
+        unknown = set(s) - _SUPPLY_FIELDS - {"kind"}
+        if unknown:
+            raise InputError(f"scenario: supply fields {sorted(unknown)} are unknown; known: {sorted(_SUPPLY_FIELDS)}")
+        supply = Supply(**s)
+        supply.describe()
+        supplies.append(supply)
+    cells_spec = data.get("cells", {})
+    cells = CellRequirement(model=cells_spec.get("model", "tijhuis1993"),
+                            cell_carbon_g=tuple(cells_spec.get("cell_carbon_g", CellRequirement().cell_carbon_g)),
+                            basal_W=tuple(cells_spec.get("basal_W", CellRequirement().basal_W)))
+    cells.describe()
+    return Scenario(title=data.get("title", path.stem), samples=frame,
+                    reactions=_reactions(data.get("reactions", {})),
+                    activity_model=data.get("activity_model", "bdot"), supplies=supplies, cells=cells,
+                    minimum_energy_kJ=float(data.get("minimum_energy_kJ_per_mol", DEFAULT_MINIMUM_ENERGY_KJ)),
+                    source=path)

@@ -1,0 +1,188 @@
+"""Catalog, enumeration, in-situ energetics, power, cells and the assess report."""
+
+import io
+import shutil
+import subprocess
+from contextlib import redirect_stdout
+
+import numpy as np
+import pandas as pd
+import pytest
+
+from redoxgibbs.energetics.catalog import catalog, electrons_transferred, enumerate_reactions
+from redoxgibbs.energetics.insitu import energy_density_kernel, gibbs_energy_kernel, insitu_energetics
+from redoxgibbs.energetics.power import (CellRequirement, Supply, maintenance_tijhuis_1993_W_per_Cmol,
+                                         power_per_cell_W, power_per_volume)
+from redoxgibbs.interfaces.cli import main
+from redoxgibbs.reactions.reaction import Reaction, reaction_properties
+from redoxgibbs.speciation.solver import speciate
+
+R = 8.314462618
+LN10 = np.log(10)
+
+
+def test_catalog_size_and_balance():
+    entries = catalog()          # loading builds every Reaction, which checks the balance
+    assert len(entries) >= 40
+    assert all(e.electrons > 0 for e in entries)
+    names = {e.name for e in entries}
+    for required in ("hydrogenotrophic methanogenesis", "acetoclastic methanogenesis", "anammox",
+                     "anaerobic oxidation of methane", "sulfur disproportionation", "acetogenesis"):
+        assert required in names
+
+
+def test_electron_counts_common_practice():
+    # common practice: 8 e- for sulfate reduction and methanogenesis from H2, 3 for anammox
+    by_name = {e.name: e.electrons for e in catalog()}
+    assert by_name["sulfate reduction with H2"] == 8
+    assert by_name["hydrogenotrophic methanogenesis"] == 8
+    assert by_name["anammox"] == 3
+    assert by_name["aerobic hydrogen oxidation"] == 4
+
+
+def test_enumeration_balances_and_counts():
+    entries = enumerate_reactions()
+    assert len(entries) == 21 * 20
+    for e in entries:            # from_coefficients re-parses and checks the balance
+        Reaction(str(e.reaction))
+    pick = enumerate_reactions(["H+/H2"], ["SO4^2-/HS-"])
+    assert str(pick[0].reaction) == "SO4^2- + H+ + 4 H2(aq) = HS- + 4 H2O(l)"
+    assert pick[0].electrons == 8
+
+
+# Thauer, Jungermann & Decker (1977) Bacteriol. Rev. 41, 100, Table: dG0' at 25 C, pH 7, gases at
+# 1 atm, solutes 1 M (from memory). Tolerance 2 kJ/mol: their data (NBS tables) and the HKF data
+# used here differ by up to about that for these species.
+@pytest.mark.parametrize("reaction,h_plus,dG0_prime", [
+    ("4 H2(g) + HCO3- + H+ = CH4(g) + 3 H2O(l)", -1, -135.6),
+    ("SO4^2- + 4 H2(g) + H+ = HS- + 4 H2O(l)", -1, -151.9),
+    ("CH3COO- + H2O(l) = CH4(g) + HCO3-", 0, -31.0),
+    ("CH3COO- + SO4^2- = 2 HCO3- + HS-", 0, -47.6),
+])
+def test_named_reactions_against_thauer_1977(reaction, h_plus, dG0_prime):
+    p = reaction_properties(reaction, 25.0, 1.0)
+    gases = Reaction(reaction).coefficients[[i for i, s in enumerate(Reaction(reaction).species) if "(g)" in s]]
+    # pH 7 and 1 atm gas: RT ln Q with a_H+ = 1e-7, f = 1.01325 bar
+    log_q = h_plus * -7.0 + gases.sum() * np.log10(1.01325)
+    dGr = float(p.dG0) + R * 298.15 * LN10 * log_q
+    assert dGr / 1000 == pytest.approx(dG0_prime, abs=2.0)
+
+
+def test_gibbs_kernel_hand_computed():
+    # dGr = dG0 + RT ln Q written out: A + 2 B = C at 300 K with a_A = 1e-3, a_B = 1e-2, a_C = 1e-6
+    dG0 = np.array([[-50_000.0]])
+    log_a = np.log10([[1e-3, 1e-2, 1e-6]])
+    nu = np.array([[-1.0], [-2.0], [1.0]])
+    dGr, log_q = gibbs_energy_kernel(dG0, log_a, nu, np.array([300.0]))
+    by_hand = -50_000.0 + R * 300.0 * np.log(1e-6 / (1e-3 * 1e-2**2))
+    assert log_q[0, 0] == pytest.approx(-6 + 3 + 4, abs=1e-12)
+    assert dGr[0, 0] == pytest.approx(by_hand, rel=1e-11)
+
+
+def test_energy_density_from_limiting_reactant():
+    # 2 mmol/kg of A (nu 1) and 1 mmol/kg of B (nu 2): B limits, 0.5 mmol/kg of reaction;
+    # at dGr = -40 kJ/mol that is 20 J/kg; a non-exergonic reaction holds none
+    amounts = np.array([[2e-3, 1e-3, 0.0]])
+    nu_consumed = np.array([[1.0, 1.0], [2.0, 2.0], [0.0, 0.0]])
+    E, limiting = energy_density_kernel(np.array([[-40_000.0, 5_000.0]]), amounts, nu_consumed)
+    assert E[0, 0] == pytest.approx(20.0, rel=1e-12) and limiting[0, 0] == 1
+    assert E[0, 1] == 0.0
+
+
+def _sample_frame():
+    return pd.DataFrame({"sample": ["a", "b"], "T [degC]": [25.0, 80.0], "P [bar]": [1.0, 50.0],
+                         "pH": [7.0, 6.5], "Na+ [mmol/kg]": [10.0, 10.0], "Cl- [mmol/kg]": [10.0, 10.0],
+                         "SO4^2- [mmol/kg]": [1.0, 2.0], "HS- [umol/kg]": [5.0, 50.0],
+                         "H2(aq) [umol/kg]": [1.0, 100.0], "O2(aq) [umol/kg]": [200.0, 1.0],
+                         "HCO3- [mmol/kg]": [2.0, 2.0], "CH4(aq) [umol/kg]": [1.0, 10.0]})
+
+
+def test_per_electron_times_electrons_is_per_reaction():
+    r = speciate(_sample_frame(), "bdot")
+    e = insitu_energetics(r, catalog())
+    ok = np.isfinite(e.dGr)
+    np.testing.assert_allclose((e.dGr_per_electron * e.electrons)[ok], e.dGr[ok], rtol=1e-12)
+
+
+def test_energy_density_is_zero_at_equilibrium():
+    # choose H2 so that CO2(aq) + 4 H2(aq) = CH4(aq) + 2 H2O(l) sits at Q = K at 25 C
+    r = speciate(_sample_frame().iloc[:1], "ideal")
+    rxn = [x for x in catalog() if x.name == "hydrogenotrophic methanogenesis"]
+    e = insitu_energetics(r, rxn)
+    # shift H2 by the dGr found: dGr -> 0 when log a_H2 rises by dGr / (4 RT ln 10)
+    shift = e.dGr[0, 0] / (4 * R * 298.15 * LN10)
+    frame = _sample_frame().iloc[:1].copy()
+    frame["H2(aq) [umol/kg]"] *= 10**shift
+    e0 = insitu_energetics(speciate(frame, "ideal"), rxn)
+    assert abs(e0.dGr[0, 0]) < 1e-6 * abs(e.dGr[0, 0]) + 1e-6
+    assert e0.energy_density_J_per_kg[0, 0] == pytest.approx(0.0, abs=1e-9)
+
+
+def test_power_and_cells_hand_computed():
+    r = speciate(_sample_frame(), "bdot")
+    e = insitu_energetics(r, [x for x in catalog() if x.name == "aerobic hydrogen oxidation"])
+    P = power_per_volume(Supply("flow-through", flux_kg_per_s=2.0, volume_m3=4.0), e)
+    np.testing.assert_allclose(P, e.energy_density_J_per_kg * 2.0 / 4.0, rtol=1e-12)
+    rate = power_per_volume(Supply("rate", rate_mol_per_L_s=1e-12), e)
+    np.testing.assert_allclose(rate, -e.dGr * 1e-12 * 1000.0, rtol=1e-12)
+    # Tijhuis et al. (1993): 4.5 kJ per C-mol per hour at 25 C; a 1e-13 g C cell needs
+    # 4.5e3 / 3600 W/C-mol x 1e-13 / 12.011 C-mol = 1.04e-14 W
+    assert maintenance_tijhuis_1993_W_per_Cmol(298.15) == pytest.approx(4500 / 3600, rel=1e-12)
+    low, high = power_per_cell_W(CellRequirement("tijhuis1993", (1e-14, 1e-13)), np.array([298.15]))
+    assert high[0] == pytest.approx(4500 / 3600 * 1e-13 / 12.011, rel=1e-9)
+    cells = P[0, 0] / high[0]
+    assert cells > 0
+
+
+def test_insitu_cli_contract():
+    out = io.StringIO()
+    import tempfile
+    with tempfile.NamedTemporaryFile("w", suffix=".csv", delete=False) as f:
+        _sample_frame().to_csv(f, index=False)
+    with redirect_stdout(out):
+        assert main(["insitu", f.name, "--reaction", "sulfide oxidation with O2", "--reaction",
+                     "CO2(aq) + 4 H2(aq) = CH4(aq) + 2 H2O(l)", "--activity-model", "bdot",
+                     "--format", "csv"]) == 0
+    frame = pd.read_csv(io.StringIO(out.getvalue()))
+    for col in ["sample", "reaction", "T_C", "P_bar", "dG0_kJ_per_mol", "log10_Q", "dGr_kJ_per_mol",
+                "dGr_kJ_per_mol_e", "limiting_species", "energy_density_J_per_kg"]:
+        assert col in frame.columns
+    assert len(frame) == 4
+
+
+def test_assess_demo_writes_everything(tmp_path):
+    out = io.StringIO()
+    with redirect_stdout(out):
+        assert main(["demo", "--out", str(tmp_path), "--quiet"]) == 0
+    for name in ["results.csv", "ranking_reactions_per_site.csv", "ranking_sites_per_reaction.csv",
+                 "report.html", "report.md"] + [f"{p}.{ext}" for p in ("gibbs_per_electron", "energy_density",
+                                                                       "heat_map", "power_and_cells")
+                                                for ext in ("png", "svg")]:
+        assert (tmp_path / name).exists(), name
+    results = pd.read_csv(tmp_path / "results.csv")
+    assert {"power_W_per_m3", "cells_per_m3_low", "cells_per_m3_high", "site"} <= set(results.columns)
+    page = (tmp_path / "report.html").read_text()
+    assert "screening estimates" in page and "local rules" in page
+
+
+CHROMIUM = shutil.which("chromium") or shutil.which("chromium-browser")
+
+
+def test_report_renders_in_headless_chromium(tmp_path):
+    # the report is a web page: render it, screenshot it, and read back the DOM it built
+    assert CHROMIUM, "Debian's chromium package is needed (installed by .ci/run)"
+    with redirect_stdout(io.StringIO()):
+        main(["demo", "--out", str(tmp_path), "--quiet"])
+    flags = ["--headless", "--no-sandbox", "--disable-gpu", "--disable-background-networking",
+             "--disable-component-update", "--disable-sync", "--no-first-run", "--disable-quic",
+             f"--user-data-dir={tmp_path / 'profile'}", "--window-size=1200,2400"]
+    url = (tmp_path / "report.html").as_uri()
+    shot = tmp_path / "shot.png"
+    subprocess.run([CHROMIUM, *flags, f"--screenshot={shot}", url], check=True, timeout=120,
+                   capture_output=True)
+    dom = subprocess.run([CHROMIUM, *flags, "--dump-dom", url], check=True, timeout=120,
+                         capture_output=True, text=True).stdout
+    assert dom.count("<svg") >= 4 and dom.count("<table") >= 4
+    import matplotlib.image as mpimg
+    pixels = mpimg.imread(shot)
+    assert pixels.shape[0] > 1000 and pixels[..., :3].std() > 0.05   # not a blank page
