@@ -34,7 +34,7 @@ def test_temperature_and_pressure_derivatives(state):
     # dG/dT = -S, dG/dP = V, dH/dT = Cp, by central differences on the species (the water
     # expansivity derivative is itself a finite difference, hence 1e-4 on Cp)
     T, P = state
-    hT, hP = 0.01, 0.5
+    hT, hP = 0.01, 0.05
     Ts = np.array([T - hT, T, T + hT, T, T])
     Ps = np.array([P, P, P, P - hP, P + hP])
     sp = standard_properties(SPECIES, Ts, Ps)
