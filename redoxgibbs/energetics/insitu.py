@@ -32,13 +32,28 @@ def gibbs_energy_kernel(dG0, log10_a, nu, T_K):
 
 def energy_density_kernel(dGr, amounts, nu_consumed):
     """Energy density [J/kg water] from dGr (n, r), amounts (n, s) [mol/kg] and |nu| of consumed
-    species (s, r; 0 where a species is not consumed or not limiting). Returns (J/kg, index of the
-    limiting species (n, r))."""
-    with np.errstate(divide="ignore", invalid="ignore"):
-        extent = np.where(nu_consumed[None] > 0, amounts[:, :, None] / nu_consumed[None], np.inf)
-    limiting = np.argmin(extent, axis=1)
-    allowed = np.take_along_axis(extent, limiting[:, None, :], axis=1)[:, 0, :]
-    allowed = np.where(np.isfinite(allowed), allowed, 0.0)
+    species (s, r; 0 where a species is not consumed or not limiting).
+
+    Returns (J/kg, index of the limiting species (n, r), -1 where nothing limits). The loop runs
+    over reactions (each has one to three limiting candidates), never over samples.
+    """
+    n, r = dGr.shape
+    by_species = np.ascontiguousarray(amounts.T)          # one contiguous row per species
+    allowed = np.zeros((n, r))
+    limiting = np.full((n, r), -1, dtype=np.int16)
+    for k in range(r):
+        idx = np.flatnonzero(nu_consumed[:, k] > 0)
+        if idx.size == 0:
+            continue
+        best = by_species[idx[0]] / nu_consumed[idx[0], k]
+        which = np.full(n, idx[0], dtype=np.int16)
+        for i in idx[1:]:   # the candidates are few: a running minimum beats argmin here
+            extent = by_species[i] / nu_consumed[i, k]
+            smaller = extent < best
+            best = np.where(smaller, extent, best)
+            which[smaller] = i
+        allowed[:, k] = best
+        limiting[:, k] = which
     return np.where(dGr < 0, -dGr * allowed, 0.0), limiting
 
 
@@ -145,8 +160,7 @@ def insitu_energetics(result, reactions, db=None, minimum_energy_kJ=DEFAULT_MINI
             consumed[j] = 0.0
     E, limiting = energy_density_kernel(np.nan_to_num(dGr, nan=0.0), amounts, consumed)
     E = np.where(unknown, np.nan, E)
-    has_consumed = (consumed > 0).any(axis=0)
-    limiting_names = np.where(has_consumed[None, :], np.array(names, dtype=object)[limiting], "")
+    limiting_names = np.where(limiting >= 0, np.array(names + [""], dtype=object)[limiting], "")
     missing = np.empty(dGr.shape, dtype=object)
     flag_text = np.empty(dGr.shape, dtype=object)
     flag_any = {k: (v.astype(float) @ (nu != 0)) > 0 for k, v in props.flags.items()}
