@@ -149,3 +149,18 @@ def test_debye_hueckel_parameters_against_helgeson_kirkham_1974(T_C, A_ref, B_re
     eps = _Dielectric(rho, T)
     assert debye_hueckel_A(T, rho, eps) == pytest.approx(A_ref, rel=0.006 if T_C <= 200 else 0.012)
     assert debye_hueckel_B(T, rho, eps) == pytest.approx(B_ref, rel=0.004)
+
+
+def test_density_newton_at_cool_low_pressure_states():
+    # sorted sweeps of near-surface states, where the Newton iteration meets cantera's rounding
+    # floor; every state must evaluate and agree with cantera's (T, P) search
+    from redoxgibbs.water.iapws95 import _phase
+
+    rng = np.random.default_rng(5)
+    T = rng.uniform(274.0, 303.0, 400)
+    P = rng.uniform(1.0, 400.0, 400)
+    w = water_state(T, P)
+    phase = _phase()
+    for t, p, rho in zip(T[:50], P[:50], w.density_kg_m3[:50]):
+        phase.TP = t, p * 1e5
+        assert rho == pytest.approx(phase.density, rel=1e-11)

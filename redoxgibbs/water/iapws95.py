@@ -106,6 +106,8 @@ def _density_newton(phase, T, P_Pa, rho_guess):
             lo = rho
         beta = phase.isothermal_compressibility
         step = residual * rho * beta if beta > 0 else np.inf
+        if abs(step) <= 1e-14 * rho:   # at the rounding floor of cantera's pressure
+            return rho
         rho_next = rho - step
         rho = rho_next if lo < rho_next < hi else 0.5 * (lo + hi)
     return None
@@ -158,6 +160,7 @@ def _density_at(phase, T, P_Pa, rho_guess, near_saturation):
             _refuse_below_saturation(phase, T, P_Pa)
     if rho is None:
         try:
+            phase.TD = T, 1000.0  # a liquid start for cantera's own search
             phase.TP = T, P_Pa
         except ct.CanteraError as err:
             text = str(err)
