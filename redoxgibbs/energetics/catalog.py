@@ -71,9 +71,10 @@ def electrons_transferred(reaction):
     return float(electrons)
 
 
-@lru_cache(maxsize=1)
-def _catalog_table():
-    path = resources.files("redoxgibbs.energetics") / "catalog.csv"
+@lru_cache(maxsize=None)
+def _packaged_table(filename):
+    """A CSV table shipped beside this module (catalog.csv, redox_couples.csv), read once."""
+    path = resources.files("redoxgibbs.energetics") / filename
     return pd.read_csv(str(path), comment="#", skipinitialspace=True)
 
 
@@ -81,7 +82,7 @@ def catalog(db=None):
     """The named reactions, each balanced (a list of :class:`NamedReaction`)."""
     db = default_database() if db is None else db
     out = []
-    for _, row in _catalog_table().iterrows():
+    for _, row in _packaged_table("catalog.csv").iterrows():
         rxn = Reaction(row["reaction"], db=db)
         out.append(NamedReaction(row["name"], rxn, electrons_transferred(rxn), row["group"]))
     return out
@@ -115,16 +116,10 @@ def _half_reaction(text, db):
     return coeffs, electrons
 
 
-@lru_cache(maxsize=1)
-def _couples_table():
-    path = resources.files("redoxgibbs.energetics") / "redox_couples.csv"
-    return pd.read_csv(str(path), comment="#", skipinitialspace=True)
-
-
 def redox_couples(db=None):
     """{couple name: (coefficients of the reduction, electrons)} from redox_couples.csv."""
     db = default_database() if db is None else db
-    return {row["couple"]: _half_reaction(row["half_reaction"], db) for _, row in _couples_table().iterrows()}
+    return {row["couple"]: _half_reaction(row["half_reaction"], db) for _, row in _packaged_table("redox_couples.csv").iterrows()}
 
 
 def _smallest_whole(coeffs):

@@ -33,17 +33,33 @@ def _label(frame):
     return frame["site"] + " / " + frame["sample"]
 
 
+def _pivot(first, value, reactions, labels):
+    return first.pivot_table(index="reaction", columns="label", values=value,
+                             aggfunc="first").reindex(index=reactions, columns=labels)
+
+
+def _log_bars(ax, table, reactions, labels, xlabel):
+    """Grouped horizontal bars on a log axis, one group per reaction, one bar per sample."""
+    width = 0.8 / max(len(labels), 1)
+    for j, lab in enumerate(labels):
+        ax.barh(np.arange(len(reactions)) + j * width, table[lab].where(table[lab] > 0),
+                height=width, label=lab)
+    ax.set_xscale("log")
+    ax.set_yticks(np.arange(len(reactions)) + 0.4 - width / 2, reactions, fontsize=7)
+    ax.invert_yaxis()
+    ax.set_xlabel(xlabel)
+
+
 def _plots(first, out):
     """The four figures; ``first`` holds one row per sample x reaction (first supply)."""
     svgs = {}
     first = first.assign(label=_label(first))
     reactions = list(dict.fromkeys(first["reaction"]))
     labels = list(dict.fromkeys(first["label"]))
-    pivot = first.pivot_table(index="reaction", columns="label", values="dGr_kJ_per_mol_e",
-                              aggfunc="first").reindex(index=reactions, columns=labels)
+    pivot = _pivot(first, "dGr_kJ_per_mol_e", reactions, labels)
     height = max(3.0, 0.22 * len(reactions) + 1.5)
     fig, ax = plt.subplots(figsize=(9, height))
-    for j, lab in enumerate(labels):
+    for lab in labels:
         ax.scatter(pivot[lab], np.arange(len(reactions)), s=18, label=lab)
     ax.axvline(0, color="k", lw=0.8)
     ax.set_yticks(np.arange(len(reactions)), reactions, fontsize=7)
@@ -54,16 +70,8 @@ def _plots(first, out):
     svgs["gibbs_per_electron"] = _save(fig, out, "gibbs_per_electron")
 
     fig, ax = plt.subplots(figsize=(9, height))
-    energy = first.pivot_table(index="reaction", columns="label", values="energy_density_J_per_kg",
-                               aggfunc="first").reindex(index=reactions, columns=labels)
-    width = 0.8 / max(len(labels), 1)
-    for j, lab in enumerate(labels):
-        vals = energy[lab].where(energy[lab] > 0)
-        ax.barh(np.arange(len(reactions)) + j * width, vals, height=width, label=lab)
-    ax.set_xscale("log")
-    ax.set_yticks(np.arange(len(reactions)) + 0.4 - width / 2, reactions, fontsize=7)
-    ax.invert_yaxis()
-    ax.set_xlabel("energy density [J per kg H2O]")
+    _log_bars(ax, _pivot(first, "energy_density_J_per_kg", reactions, labels), reactions, labels,
+              "energy density [J per kg H2O]")
     ax.set_title("Energy available per kilogram of fluid")
     ax.legend(fontsize=7)
     svgs["energy_density"] = _save(fig, out, "energy_density")
@@ -79,18 +87,9 @@ def _plots(first, out):
     svgs["heat_map"] = _save(fig, out, "heat_map")
 
     fig, axes = plt.subplots(1, 2, figsize=(11, height))
-    power = first.pivot_table(index="reaction", columns="label", values="power_W_per_m3",
-                              aggfunc="first").reindex(index=reactions, columns=labels)
-    cells = first.pivot_table(index="reaction", columns="label", values="cells_per_m3_high",
-                              aggfunc="first").reindex(index=reactions, columns=labels)
-    for ax, table, xlabel in ((axes[0], power, "power [W/m3]"), (axes[1], cells, "cells per m3 (high end)")):
-        for j, lab in enumerate(labels):
-            vals = table[lab].where(table[lab] > 0)
-            ax.barh(np.arange(len(reactions)) + j * width, vals, height=width, label=lab)
-        ax.set_xscale("log")
-        ax.set_yticks(np.arange(len(reactions)) + 0.4 - width / 2, reactions, fontsize=7)
-        ax.invert_yaxis()
-        ax.set_xlabel(xlabel)
+    _log_bars(axes[0], _pivot(first, "power_W_per_m3", reactions, labels), reactions, labels, "power [W/m3]")
+    _log_bars(axes[1], _pivot(first, "cells_per_m3_high", reactions, labels), reactions, labels,
+              "cells per m3 (high end)")
     axes[0].set_title("Power delivered by the supply")
     axes[1].set_title("Cells it could sustain")
     axes[0].legend(fontsize=7)
