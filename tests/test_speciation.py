@@ -173,6 +173,7 @@ def test_pH_from_charge_balance():
 @pytest.mark.parametrize("column,value,message", [
     ("Na+ [mmol/kg]", -1.0, "below the allowed amount"), ("Na+ [mmol/kg]", "lots", "not a number"),
     ("pH", 17.0, "above the allowed pH"), ("Nax+ [mmol/kg]", 1.0, "did you mean"),
+    ("T [degC]", 1200.0, "above 1000 degC"), ("P [bar]", 6000.0, "above 5000 bar"),
     ("Na+ [furlong]", 1.0, "not an amount unit")])
 def test_bad_input_names_row_column_and_reason(column, value, message):
     frame = _vent_frame()[["sample", "T [degC]", "P [bar]", "pH", "Cl- [mmol/kg]"]].copy()

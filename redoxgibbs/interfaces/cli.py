@@ -57,6 +57,8 @@ def _speciation(args):
     print(f"Activity model: {result.activity_model}\n")
     for i, row in summary.iterrows():
         flag = "  (beyond the activity model's ionic-strength range)" if row.beyond_activity_model_validity else ""
+        if row.density_estimated:
+            flag += "  (per-litre amounts converted with an estimated density)"
         print(f"{row['sample']}: {row.T_C:.2f} degC, {row.P_bar:.2f} bar, in-situ pH {row.pH_insitu:.3f}, "
               f"I = {row.ionic_strength_mol_per_kg:.4g} mol/kg{flag}, charge imbalance "
               f"{row.charge_imbalance_eq_per_kg:.3g} eq/kg")

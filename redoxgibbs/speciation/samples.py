@@ -109,6 +109,19 @@ def _pressures(frame, labels, T_K):
     return P
 
 
+def _check_states(T_K, P_bar, labels, t_col):
+    """Refuse, by row, states outside the engine's range (ice and vapour are refused later)."""
+    from ..species.properties import VALIDITY
+
+    for bad, what in ((T_K > VALIDITY["T_max_K"], f"{t_col!r}: above 1000 degC"),
+                      (T_K < VALIDITY["T_min_K"], f"{t_col!r}: below -20 degC, colder than any liquid water here"),
+                      (P_bar > VALIDITY["P_max_bar"], "'P [bar]': above 5000 bar")):
+        if bad.any():
+            i = int(np.flatnonzero(bad)[0])
+            raise InputError(f"row {labels[i]}, column {what}, the range of the revised HKF "
+                             "equations; give a state within 0-1000 degC and up to 5000 bar")
+
+
 def read_samples(source, db=None):
     """Read a sample table (CSV path or DataFrame) into a :class:`SampleSet`, validating each cell."""
     db = default_database() if db is None else db
@@ -124,6 +137,7 @@ def read_samples(source, db=None):
     T = _numeric(frame, t_col, labels, allow_blank=False, what="temperature")
     T_K = to_unit(T, headers[t_col][1] or "degC", "kelvin", f"column {t_col!r}")
     P = _pressures(frame, labels, T_K)
+    _check_states(T_K, P, labels, t_col)
     pH = _numeric(frame, "pH", labels, low=-2.0, high=16.0, what="pH") if "pH" in frame else np.full(len(frame), np.nan)
     pht_col = next((c for c, (n, u) in headers.items() if n == "pH T"), None)
     pH_T_K = T_K.copy()

@@ -54,6 +54,7 @@ class SpeciationResult:
     activity_model: str
     beyond_model_validity: np.ndarray   # ionic strength above the model's stated limit, (n,)
     present: np.ndarray                 # bool (n, n_species): built only from measured components
+    density_estimated: np.ndarray       # per-litre units converted with an estimated density, (n,)
 
     @property
     def log10_activity(self):
@@ -76,7 +77,7 @@ class SpeciationResult:
             "pH_insitu": self.pH, "ionic_strength_mol_per_kg": self.ionic_strength,
             "charge_imbalance_eq_per_kg": self.charge_imbalance,
             "beyond_activity_model_validity": self.beyond_model_validity,
-            "newton_iterations": self.iterations})
+            "density_estimated": self.density_estimated, "newton_iterations": self.iterations})
 
 
 def _log_k(system, db, T_K, P_bar):
@@ -254,4 +255,5 @@ def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, 
         log10_gamma=lg, ionic_strength=I, pH=-xH, charge_imbalance=m @ system.charge,
         log10_water_activity=law, totals={mn: m @ system.nu[:, j] for j, mn in enumerate(masters)},
         minerals=system.minerals, saturation_index=si, iterations=iterations,
-        activity_model=model.name, beyond_model_validity=I > model.I_max, present=present)
+        activity_model=model.name, beyond_model_validity=I > model.I_max, present=present,
+        density_estimated=s.density_estimated)
