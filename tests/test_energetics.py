@@ -186,3 +186,62 @@ def test_report_renders_in_headless_chromium(tmp_path):
     import matplotlib.image as mpimg
     pixels = mpimg.imread(shot)
     assert pixels.shape[0] > 1000 and pixels[..., :3].std() > 0.05   # not a blank page
+
+
+# --- mixing -----------------------------------------------------------------------------------
+def _end_members():
+    return pd.DataFrame({
+        "sample": ["vent", "sea"], "T [degC]": [330.0, 2.0], "P [bar]": [250.0, 250.0],
+        "pH": [3.6, 7.9], "pH T [degC]": [25.0, 25.0], "Na+ [mmol/kg]": [420.0, 464.0],
+        "Cl- [mmol/kg]": [530.0, 545.0], "Mg^2+ [mmol/kg]": [0.0, 52.7], "Ca^2+ [mmol/kg]": [30.0, 10.2],
+        "SO4^2- [mmol/kg]": [0.5, 28.0], "HCO3- [mmol/kg]": [8.0, 2.3], "HS- [mmol/kg]": [6.0, 0.0],
+        "H2(aq) [mmol/kg]": [1.2, 0.0004], "O2(aq) [umol/kg]": [0.0, 200.0]})
+
+
+def test_mixing_conserves_elements_and_mass():
+    from redoxgibbs.species.database import default_database
+    from redoxgibbs.speciation.mixing import mixture_samples
+    from redoxgibbs.speciation.samples import read_samples
+
+    db = default_database()
+    s = read_samples(_end_members())
+    ends = speciate(s, "bdot")
+    f = np.array([0.0, 0.1, 0.5, 0.9, 1.0])
+    mixed, q, W_mix = mixture_samples(s, "vent", "sea", f, db, ends.charge_imbalance)
+    r = speciate(mixed, "bdot", pH_from_charge_balance=True, charge_balance_target=q)
+    W, _ = s.water_fraction_and_density(db)
+    for el in ("Na", "Cl", "Mg", "S", "C", "Ca"):
+        count = np.array([db.record(n).elements.get(el, 0.0) for n in r.species])
+        per_kg_solution = (r.molality @ count) * W_mix
+        ends_el = np.array([(ends.molality[i] @ count) * W[i] for i in (0, 1)])
+        np.testing.assert_allclose(per_kg_solution, f * ends_el[0] + (1 - f) * ends_el[1], rtol=1e-10)
+    # mass of fluid: water plus solutes per kg of solution stays 1 kg
+    np.testing.assert_allclose(W_mix, f * W[0] + (1 - f) * W[1], rtol=1e-12)
+
+
+def test_mixing_end_members_reproduce_end_member_results():
+    from redoxgibbs.energetics.mixing import mixing_energetics
+
+    rx = [x for x in catalog() if x.name in ("sulfate reduction with H2", "aerobic hydrogen oxidation")]
+    frame = mixing_energetics(_end_members(), "vent", "sea", rx, fractions=[1.0, 0.0])
+    ends = speciate(_end_members(), "bdot")
+    np.testing.assert_allclose(frame["pH_insitu"].to_numpy()[::2], ends.pH, atol=1e-9)
+    e = insitu_energetics(ends, rx)
+    np.testing.assert_allclose(frame["dGr_kJ_per_mol"].to_numpy().reshape(2, 2), e.dGr / 1000, rtol=1e-9)
+
+
+def test_enthalpy_mixing_temperature_against_iapws_hand_calculation():
+    # hand calculation with the iapws package's IAPWS-95 enthalpies: h_mix = f h_a + (1 - f) h_b,
+    # then T from h by bisection (independent of the project's water layer)
+    import iapws
+
+    from redoxgibbs.speciation.mixing import mixing_temperature_enthalpy
+
+    Ta, Tb, P, f = 603.15, 275.15, 250.0, 0.3
+    h = lambda T: iapws.IAPWS95(T=T, P=P / 10).h
+    target = f * h(Ta) + (1 - f) * h(Tb)
+    lo, hi = Tb, Ta
+    for _ in range(60):
+        mid = 0.5 * (lo + hi)
+        lo, hi = (mid, hi) if h(mid) < target else (lo, mid)
+    assert float(mixing_temperature_enthalpy(np.array([f]), Ta, Tb, P)[0]) == pytest.approx(0.5 * (lo + hi), abs=1e-6)

@@ -149,16 +149,20 @@ def insitu_energetics(result, reactions, db=None, minimum_energy_kJ=DEFAULT_MINI
     props = standard_properties(names, result.T_K, result.P_bar, db=db, properties=("G",))
     dG0 = props.G @ nu
     la, amounts = _activity_columns(result, names, db, gas_fugacity or {})
-    dGr, log_q = gibbs_energy_kernel(dG0, np.nan_to_num(la, nan=0.0), nu, result.T_K)
-    missing_mask = np.isnan(la)[:, :, None] & (nu[None] != 0)
+    # measured zeros: with a zero reactant the reaction cannot run (dGr = +inf, no energy); with a
+    # zero product dGr is unbounded and is left undefined, named in missing_species
+    zero = np.isneginf(la)
+    dGr, log_q = gibbs_energy_kernel(dG0, np.where(np.isfinite(la), la, 0.0), nu, result.T_K)
+    missing_mask = (np.isnan(la)[:, :, None] & (nu[None] != 0)) | (zero[:, :, None] & (nu[None] > 0))
+    no_reactant = (zero[:, :, None] & (nu[None] < 0)).any(axis=1)
     unknown = missing_mask.any(axis=1)
-    dGr = np.where(unknown, np.nan, dGr)
-    log_q = np.where(unknown, np.nan, log_q)
+    dGr = np.where(unknown, np.nan, np.where(no_reactant, np.inf, dGr))
+    log_q = np.where(unknown, np.nan, np.where(no_reactant, np.inf, log_q))
     consumed = np.where(nu < 0, -nu, 0.0)
     for j, name in enumerate(names):
         if name in NOT_LIMITING or db.record(name).state != "aq":
             consumed[j] = 0.0
-    E, limiting = energy_density_kernel(np.nan_to_num(dGr, nan=0.0), amounts, consumed)
+    E, limiting = energy_density_kernel(np.nan_to_num(dGr, nan=0.0, posinf=0.0), amounts, consumed)
     E = np.where(unknown, np.nan, E)
     limiting_names = np.where(limiting >= 0, np.array(names + [""], dtype=object)[limiting], "")
     missing = np.empty(dGr.shape, dtype=object)

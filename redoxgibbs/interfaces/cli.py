@@ -121,6 +121,29 @@ def _demo(args):
     return 0
 
 
+def _mix(args):
+    from ..energetics.mixing import mixing_energetics
+    from .report import mixing_figure
+
+    if (args.fractions is None) == (args.temperatures is None):
+        raise RedoxGibbsError("mix: give either --fractions or --temperatures")
+    frame = mixing_energetics(
+        args.samples, args.hydrothermal, args.seawater, resolve_reactions(args.reaction),
+        fractions=None if args.fractions is None else _number_list(args.fractions, "fractions"),
+        temperatures_C=None if args.temperatures is None else _number_list(args.temperatures, "temperatures"),
+        rule=args.temperature_rule, activity_model_name=args.activity_model)
+    if args.plot:
+        mixing_figure(frame, args.plot)
+    if args.format == "csv":
+        sys.stdout.write(frame.to_csv(index=False, float_format="%.6g"))
+    else:
+        cols = ["hydrothermal_fraction", "T_C", "pH_insitu", "reaction", "dGr_kJ_per_mol",
+                "energy_J_per_kg_mixed_fluid", "energy_J_per_kg_hydrothermal_fluid"]
+        print(frame[cols].to_string(index=False, float_format=lambda v: f"{v:.4g}"))
+        print("\n" + SCREENING_NOTE)
+    return 0
+
+
 def _parser():
     parser = argparse.ArgumentParser(
         prog="redoxgibbs",
@@ -161,6 +184,18 @@ def _parser():
     ass.add_argument("--out", required=True, help="output folder")
     ass.add_argument("--quiet", action="store_true", help="no progress lines")
     ass.set_defaults(run=_assess)
+    mix = sub.add_parser("mix", help="energetics along the mixing path of two end-member samples")
+    mix.add_argument("samples", help="CSV holding both end-members (as for 'speciation')")
+    mix.add_argument("--hydrothermal", required=True, help="sample name of the hot end-member")
+    mix.add_argument("--seawater", required=True, help="sample name of the cold end-member")
+    mix.add_argument("--fractions", help="comma-separated mass fractions of the hydrothermal fluid")
+    mix.add_argument("--temperatures", help="comma-separated mixture temperatures [degC]")
+    mix.add_argument("--temperature-rule", choices=("enthalpy", "linear"), default="enthalpy")
+    mix.add_argument("--reaction", action="append", required=True)
+    mix.add_argument("--activity-model", choices=("ideal", "davies", "bdot"), default="bdot")
+    mix.add_argument("--plot", help="write the energy-against-temperature figure to this PNG/SVG file")
+    mix.add_argument("--format", choices=("table", "csv"), default="table")
+    mix.set_defaults(run=_mix)
     demo = sub.add_parser("demo", help="run the bundled demo scenario (invented sites)")
     demo.add_argument("--out", default="redoxgibbs-demo", help="output folder (default %(default)s)")
     demo.add_argument("--quiet", action="store_true")

@@ -13,7 +13,7 @@ import pandas as pd  # noqa: E402
 
 from ..species.database import default_database  # noqa: E402
 
-__all__ = ["write_outputs", "SCREENING_NOTE"]
+__all__ = ["write_outputs", "mixing_figure", "SCREENING_NOTE"]
 
 SCREENING_NOTE = ("These are screening estimates of thermodynamic potential, not evidence of life "
                   "or of rates. Field sampling near hot fluids follows local rules and trained practice.")
@@ -95,6 +95,23 @@ def _plots(first, out):
     axes[0].legend(fontsize=7)
     svgs["power_and_cells"] = _save(fig, out, "power_and_cells")
     return svgs
+
+
+def mixing_figure(frame, path):
+    """Energy per kg of mixed fluid against mixing temperature, one curve per reaction."""
+    fig, ax = plt.subplots(figsize=(8, 5))
+    for name, group in frame.groupby("reaction", sort=False):
+        g = group.sort_values("T_C")
+        ax.plot(g["T_C"], g["energy_J_per_kg_mixed_fluid"].where(g["energy_J_per_kg_mixed_fluid"] > 0),
+                marker="o", ms=3, label=name)
+    ax.set_yscale("log")
+    ax.set_xlabel("mixture temperature [degC]")
+    ax.set_ylabel("energy [J per kg of mixed fluid]")
+    ax.set_title("Energy along the mixing path")
+    ax.legend(fontsize=7)
+    fig.tight_layout()
+    fig.savefig(path, dpi=110)
+    plt.close(fig)
 
 
 def _rankings(first, out):

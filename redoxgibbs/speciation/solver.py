@@ -181,12 +181,14 @@ def _newton(system, model, logK, A, B, T_K, totals, fixed_log_a, log_aH, charge_
     return m, lg, ionic_strength(m, z), log_aw, x[:, k], iterations
 
 
-def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, db=None):
+def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, db=None,
+             charge_balance_target=None):
     """Speciate a sample table (path, DataFrame or :class:`SampleSet`) at in-situ T and P.
 
     pH: given at in-situ T; or measured at ``pH T`` and carried to in-situ T, P by re-speciating at
     constant totals and charge balance; or, when missing and ``pH_from_charge_balance`` is set,
-    solved from charge balance.
+    solved from charge balance: sum z m = ``charge_balance_target`` [eq/kg water] (default 0; a
+    mixture carries its end-members' imbalance, i.e. their alkalinity).
     """
     db = default_database() if db is None else db
     s = samples if isinstance(samples, SampleSet) else read_samples(samples, db=db)
@@ -227,13 +229,13 @@ def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, 
         return out, logK_min
 
     # stage 1: where pH was measured at another temperature, speciate there to fix the charge balance
-    charge_target = np.zeros(n)
+    charge_target = np.zeros(n) if charge_balance_target is None else np.asarray(charge_balance_target, float)
     iterations = np.zeros(n, dtype=int)
     shifted = ~missing_pH & (np.abs(s.pH_T_K - s.T_K) > 1e-9)
     if shifted.any():
         P_lab = psat_convention_bar(s.pH_T_K)
         (m, lg, I, law, xH, its), _ = stage(s.pH_T_K, P_lab, -s.pH, np.zeros(n), np.zeros(n, bool))
-        charge_target = np.where(shifted, m @ system.charge, 0.0)
+        charge_target = np.where(shifted, m @ system.charge, charge_target)
         iterations += np.where(shifted, its, 0)
     solve_H = missing_pH | shifted
     (m, lg, I, law, xH, its), logK_min = stage(s.T_K, s.P_bar, np.where(solve_H, np.nan, -s.pH),

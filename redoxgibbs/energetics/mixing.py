@@ -1,0 +1,48 @@
+"""Gibbs energies and energy densities along the mixing path of two end-member fluids.
+
+Each mixture is re-speciated with pH from charge balance, its totals and alkalinity (charge
+imbalance) mixed conservatively from the end-members, whose own pH fixes their imbalance; redox
+couples are not equilibrated with each other. Energy is reported per kg of mixed fluid and per kg
+of hydrothermal fluid (divided by its mass fraction f).
+"""
+
+import numpy as np
+import pandas as pd
+
+from ..species.database import default_database
+from ..speciation.mixing import fraction_for_temperature, mixture_samples
+from ..speciation.samples import SampleSet, read_samples
+from ..speciation.solver import speciate
+from .insitu import insitu_energetics
+
+__all__ = ["mixing_energetics"]
+
+
+def mixing_energetics(samples, hydrothermal, seawater, reactions, fractions=None, temperatures_C=None,
+                      rule="enthalpy", activity_model_name="bdot", db=None):
+    """A long table (mixture x reaction) of energetics along a mixing path.
+
+    Give either ``fractions`` (mass fractions of the hydrothermal fluid) or ``temperatures_C``
+    (mixture temperatures, converted to fractions by the same ``rule``).
+    """
+    db = default_database() if db is None else db
+    s = samples if isinstance(samples, SampleSet) else read_samples(samples, db=db)
+    ends = speciate(s, activity_model_name, pH_from_charge_balance=True, db=db)
+    a = s.names.index(hydrothermal) if hydrothermal in s.names else None
+    if temperatures_C is not None:
+        b = s.names.index(seawater)
+        fractions = fraction_for_temperature(np.asarray(temperatures_C, float) + 273.15, s.T_K[a],
+                                             s.T_K[b], float(s.P_bar[a]), rule)
+    mixed, q, W = mixture_samples(s, hydrothermal, seawater, fractions, db, ends.charge_imbalance, rule)
+    result = speciate(mixed, activity_model_name, pH_from_charge_balance=True, db=db,
+                      charge_balance_target=q)
+    energetics = insitu_energetics(result, reactions, db=db, water_per_kg_solution=W)
+    frame = energetics.to_frame()
+    f = np.repeat(np.asarray(fractions, float), len(reactions))
+    frame.insert(1, "hydrothermal_fraction", f)
+    frame["pH_insitu"] = np.repeat(result.pH, len(reactions))
+    frame["energy_J_per_kg_mixed_fluid"] = frame["energy_density_J_per_kg_solution"]
+    with np.errstate(divide="ignore", invalid="ignore"):
+        frame["energy_J_per_kg_hydrothermal_fluid"] = np.where(f > 0, frame["energy_J_per_kg_mixed_fluid"] / f, np.nan)
+    frame["temperature_rule"] = rule
+    return pd.DataFrame(frame)
