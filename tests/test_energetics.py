@@ -245,3 +245,12 @@ def test_enthalpy_mixing_temperature_against_iapws_hand_calculation():
         mid = 0.5 * (lo + hi)
         lo, hi = (mid, hi) if h(mid) < target else (lo, mid)
     assert float(mixing_temperature_enthalpy(np.array([f]), Ta, Tb, P)[0]) == pytest.approx(0.5 * (lo + hi), abs=1e-6)
+
+
+def test_scenario_mixing_section_writes_the_path(tmp_path):
+    with redirect_stdout(io.StringIO()):
+        assert main(["demo", "--out", str(tmp_path), "--quiet"]) == 0
+    mixing = pd.read_csv(tmp_path / "mixing.csv")
+    assert {"hydrothermal_fraction", "energy_J_per_kg_mixed_fluid", "energy_J_per_kg_hydrothermal_fluid"} <= set(mixing.columns)
+    assert (tmp_path / "mixing_path.png").exists() and (tmp_path / "mixing_path.svg").exists()
+    assert mixing["T_C"].min() == pytest.approx(5.0, abs=1e-6)

@@ -23,6 +23,7 @@ class Assessment:
     speciation: object
     energetics: object
     results: pd.DataFrame
+    mixing: pd.DataFrame = None
 
 
 def _progress(step, total, text, quiet):
@@ -33,9 +34,9 @@ def _progress(step, total, text, quiet):
 def run_assessment(scenario_path, quiet=False):
     """Run a scenario file; returns an :class:`Assessment` (nothing is written here)."""
     db = default_database()
-    steps = 4
-    _progress(1, steps, f"reading scenario {scenario_path}", quiet)
+    _progress(1, 4, f"reading scenario {scenario_path}", quiet)
     scenario = load_scenario(scenario_path)
+    steps = 5 if scenario.mixing else 4
     samples = read_samples(scenario.samples.drop(columns=["site"]), db=db)
     _progress(2, steps, f"speciating {len(samples)} samples ({scenario.activity_model})", quiet)
     result = speciate(samples, scenario.activity_model)
@@ -65,4 +66,14 @@ def run_assessment(scenario_path, quiet=False):
             frame["cells_per_m3_high"] = (P / low_W[:, None]).ravel()
         frame["cell_model"] = scenario.cells.describe()
         frames.append(frame)
-    return Assessment(scenario, samples, result, energetics, pd.concat(frames, ignore_index=True))
+    mixing = None
+    if scenario.mixing:
+        from ..energetics.mixing import mixing_energetics
+
+        m = scenario.mixing
+        _progress(steps, steps, f"mixing {m['hydrothermal']} into {m['seawater']}", quiet)
+        mixing = mixing_energetics(samples, m["hydrothermal"], m["seawater"], scenario.reactions,
+                                   fractions=m.get("fractions"), temperatures_C=m.get("temperatures_C"),
+                                   rule=m.get("temperature_rule", "enthalpy"),
+                                   activity_model_name=scenario.activity_model, db=db)
+    return Assessment(scenario, samples, result, energetics, pd.concat(frames, ignore_index=True), mixing)

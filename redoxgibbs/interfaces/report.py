@@ -97,8 +97,11 @@ def _plots(first, out):
     return svgs
 
 
-def mixing_figure(frame, path):
-    """Energy per kg of mixed fluid against mixing temperature, one curve per reaction."""
+def mixing_figure(frame, path=None):
+    """Energy per kg of mixed fluid against mixing temperature, one curve per reaction.
+
+    Writes ``path`` when given; returns the figure's SVG text.
+    """
     fig, ax = plt.subplots(figsize=(8, 5))
     for name, group in frame.groupby("reaction", sort=False):
         g = group.sort_values("T_C")
@@ -110,8 +113,12 @@ def mixing_figure(frame, path):
     ax.set_title("Energy along the mixing path")
     ax.legend(fontsize=7)
     fig.tight_layout()
-    fig.savefig(path, dpi=110)
+    if path is not None:
+        fig.savefig(path, dpi=110)
+    buf = io.StringIO()
+    fig.savefig(buf, format="svg")
     plt.close(fig)
+    return buf.getvalue()
 
 
 def _rankings(first, out):
@@ -155,6 +162,10 @@ def write_outputs(assessment, out_dir):
     first = results[results["supply"] == first_supply]
     ranking = _rankings(first, out)
     svgs = _plots(first, out)
+    if assessment.mixing is not None:
+        assessment.mixing.to_csv(out / "mixing.csv", index=False)
+        svgs["mixing_path"] = mixing_figure(assessment.mixing, out / "mixing_path.png")
+        (out / "mixing_path.svg").write_text(svgs["mixing_path"])
     sc = assessment.scenario
     summary = assessment.speciation.summary_frame()
     summary.insert(0, "site", sc.samples["site"].to_numpy())

@@ -9,6 +9,8 @@ Schema (annotated example: examples/demo_scenario.toml):
 - ``[[supply]]``: ``kind`` = flow-through | turnover | areal-flux | rate and its parameters
 - ``[cells]``: ``model`` = tijhuis1993 (with ``cell_carbon_g`` = [low, high]) or basal
   (with ``basal_W`` = [low, high])
+- ``[mixing]`` (optional): ``hydrothermal`` and ``seawater`` (sample names), ``temperatures_C`` or
+  ``fractions``, ``temperature_rule`` = enthalpy | linear
 """
 
 import sys
@@ -43,6 +45,7 @@ class Scenario:
     cells: CellRequirement = field(default_factory=CellRequirement)
     minimum_energy_kJ: float = DEFAULT_MINIMUM_ENERGY_KJ
     source: Path = None
+    mixing: dict = None
 
 
 def _site_frame(site, folder):
@@ -105,8 +108,16 @@ def load_scenario(path):
                             cell_carbon_g=tuple(cells_spec.get("cell_carbon_g", CellRequirement().cell_carbon_g)),
                             basal_W=tuple(cells_spec.get("basal_W", CellRequirement().basal_W)))
     cells.describe()
+    mixing = data.get("mixing")
+    if mixing is not None:
+        names = set(frame["sample"].astype(str))
+        for role in ("hydrothermal", "seawater"):
+            if mixing.get(role) not in names:
+                raise InputError(f"scenario: [mixing] {role} = {mixing.get(role)!r} is not a sample name")
+        if ("temperatures_C" in mixing) == ("fractions" in mixing):
+            raise InputError("scenario: [mixing] needs either temperatures_C or fractions")
     return Scenario(title=data.get("title", path.stem), samples=frame,
                     reactions=_reactions(data.get("reactions", {})),
                     activity_model=data.get("activity_model", "bdot"), supplies=supplies, cells=cells,
                     minimum_energy_kJ=float(data.get("minimum_energy_kJ_per_mol", DEFAULT_MINIMUM_ENERGY_KJ)),
-                    source=path)
+                    source=path, mixing=mixing)
