@@ -34,9 +34,9 @@ def _progress(step, total, text, quiet):
 def run_assessment(scenario_path, quiet=False):
     """Run a scenario file; returns an :class:`Assessment` (nothing is written here)."""
     db = default_database()
-    _progress(1, 4, f"reading scenario {scenario_path}", quiet)
     scenario = load_scenario(scenario_path)
     steps = 5 if scenario.mixing else 4
+    _progress(1, steps, f"read scenario {scenario_path}", quiet)
     samples = read_samples(scenario.samples.drop(columns=["site"]), db=db)
     _progress(2, steps, f"speciating {len(samples)} samples ({scenario.activity_model})", quiet)
     result = speciate(samples, scenario.activity_model)
