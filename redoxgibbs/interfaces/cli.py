@@ -144,6 +144,20 @@ def _mix(args):
     return 0
 
 
+def _sweep(args):
+    from ..sweeps.runner import run_sweep
+    from .scenario import load_scenario, sweep_spec
+
+    spec = sweep_spec(load_scenario(args.scenario))
+    percentiles, correlations, _ = run_sweep(spec, args.out, workers=args.workers,
+                                             scheduler=args.scheduler, quiet=args.quiet)
+    percentiles.to_csv(f"{args.out}/percentiles.csv", index=False)
+    correlations.to_csv(f"{args.out}/rank_correlations.csv", index=False)
+    print(percentiles.to_string(index=False, float_format=lambda v: f"{v:.4g}"))
+    print(f"\nchunks, percentiles.csv and rank_correlations.csv in {args.out}")
+    return 0
+
+
 def _parser():
     parser = argparse.ArgumentParser(
         prog="redoxgibbs",
@@ -196,6 +210,13 @@ def _parser():
     mix.add_argument("--plot", help="write the energy-against-temperature figure to this PNG/SVG file")
     mix.add_argument("--format", choices=("table", "csv"), default="table")
     mix.set_defaults(run=_mix)
+    swp = sub.add_parser("sweep", help="grid or Monte Carlo sweep of a scenario's [sweep] / [uncertainty]")
+    swp.add_argument("scenario")
+    swp.add_argument("--out", required=True, help="folder for the Parquet chunks and summaries")
+    swp.add_argument("--workers", type=int, help="start a local dask cluster with this many workers")
+    swp.add_argument("--scheduler", help="address of an existing dask.distributed scheduler")
+    swp.add_argument("--quiet", action="store_true")
+    swp.set_defaults(run=_sweep)
     demo = sub.add_parser("demo", help="run the bundled demo scenario (invented sites)")
     demo.add_argument("--out", default="redoxgibbs-demo", help="output folder (default %(default)s)")
     demo.add_argument("--quiet", action="store_true")

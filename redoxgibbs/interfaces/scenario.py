@@ -11,6 +11,11 @@ Schema (annotated example: examples/demo_scenario.toml):
   (with ``basal_W`` = [low, high])
 - ``[mixing]`` (optional): ``hydrothermal`` and ``seawater`` (sample names), ``temperatures_C`` or
   ``fractions``, ``temperature_rule`` = enthalpy | linear
+- ``[uncertainty]`` or ``[sweep]`` (for ``redoxgibbs sweep``): ``sample`` (the base sample's
+  name), ``draws``, ``seed``, ``chunk_size``, and ``[uncertainty.inputs]`` mapping a sample
+  column to ``{distribution = "normal", mean, sd}``, ``{distribution = "lognormal", median,
+  sigma_ln}`` or ``{distribution = "uniform", low, high}``; ``[sweep.inputs]`` maps a column to a
+  list of values (their product is swept)
 """
 
 import sys
@@ -29,7 +34,7 @@ if sys.version_info >= (3, 11):
 else:  # pragma: no cover
     import tomli as tomllib
 
-__all__ = ["Scenario", "load_scenario"]
+__all__ = ["Scenario", "load_scenario", "sweep_spec"]
 
 _SUPPLY_FIELDS = {"flux_kg_per_s", "volume_m3", "tau_s", "areal_flux_mol_per_m2_yr", "thickness_m",
                   "limiting_species", "rate_mol_per_L_s"}
@@ -46,6 +51,7 @@ class Scenario:
     minimum_energy_kJ: float = DEFAULT_MINIMUM_ENERGY_KJ
     source: Path = None
     mixing: dict = None
+    raw: dict = None
 
 
 def _site_frame(site, folder):
@@ -120,4 +126,40 @@ def load_scenario(path):
                     reactions=_reactions(data.get("reactions", {})),
                     activity_model=data.get("activity_model", "bdot"), supplies=supplies, cells=cells,
                     minimum_energy_kJ=float(data.get("minimum_energy_kJ_per_mol", DEFAULT_MINIMUM_ENERGY_KJ)),
-                    source=path, mixing=mixing)
+                    source=path, mixing=mixing, raw=data)
+
+
+def _distribution(column, spec):
+    from ..sweeps.runner import Distribution
+
+    if isinstance(spec, list):
+        return Distribution("grid", values=tuple(spec))
+    kind = spec.get("distribution")
+    keys = {"normal": ("mean", "sd"), "lognormal": ("median", "sigma_ln"), "uniform": ("low", "high")}
+    if kind not in keys:
+        raise InputError(f"scenario: input {column!r}: distribution must be one of {', '.join(keys)}")
+    a, b = keys[kind]
+    if a not in spec or b not in spec:
+        raise InputError(f"scenario: input {column!r}: a {kind} distribution needs {a} and {b}")
+    return Distribution(kind, float(spec[a]), float(spec[b]))
+
+
+def sweep_spec(scenario):
+    """The SweepSpec of a scenario's [uncertainty] or [sweep] section."""
+    from ..sweeps.runner import SweepSpec
+
+    section = scenario.raw.get("uncertainty") or scenario.raw.get("sweep")
+    if not section:
+        raise InputError("scenario: no [uncertainty] or [sweep] section to run")
+    rows = scenario.samples[scenario.samples["sample"].astype(str) == str(section.get("sample"))]
+    if rows.empty:
+        raise InputError(f"scenario: sweep base sample {section.get('sample')!r} is not a sample name")
+    base = {k: v for k, v in rows.iloc[0].items() if k != "site" and not (isinstance(v, float) and pd.isna(v))}
+    inputs = {c: _distribution(c, d) for c, d in section.get("inputs", {}).items()}
+    if not inputs:
+        raise InputError("scenario: the sweep section names no inputs")
+    return SweepSpec(base=base, inputs=inputs, reactions=tuple(x.name if x.group else str(x.reaction)
+                                                                for x in scenario.reactions),
+                     activity_model=scenario.activity_model, n=int(section.get("draws", 1000)),
+                     chunk_size=int(section.get("chunk_size", 10_000)), seed=int(section.get("seed", 0)),
+                     supply=scenario.supplies[0] if scenario.supplies else None, cells=scenario.cells)

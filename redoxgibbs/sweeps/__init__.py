@@ -1,0 +1,1 @@
+"""Parameter sweeps and Monte Carlo uncertainty, in chunks streamed to Parquet."""

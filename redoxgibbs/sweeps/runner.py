@@ -1,0 +1,194 @@
+"""Grids and Monte Carlo draws over sample inputs, run in chunks that stream to Parquet.
+
+A sweep varies columns of one base sample (any sample-table column: T, P, pH, a total, ...).
+Monte Carlo inputs carry a distribution (normal, lognormal, uniform); grid inputs a list of
+values (their product is swept). Work runs in chunks; each chunk's draws come from its own seed,
+numpy's SeedSequence of (seed, chunk index), so results do not depend on who computes a chunk.
+Each finished chunk is written atomically as chunk_NNNNN.parquet; an interrupted sweep resumes
+from the chunks already on disk. The same chunks run in-process or on a dask.distributed cluster
+(coarse tasks: a chunk is seconds of work, and draws are made on the worker).
+"""
+
+import itertools
+import os
+import sys
+from dataclasses import dataclass, field
+from pathlib import Path
+
+import numpy as np
+import pandas as pd
+
+from ..energetics.catalog import resolve_reactions
+from ..energetics.insitu import insitu_energetics
+from ..energetics.power import CellRequirement, power_per_cell_W, power_per_volume
+from ..errors import InputError
+from ..species.database import default_database
+from ..speciation.samples import read_samples
+from ..speciation.solver import speciate
+
+__all__ = ["Distribution", "SweepSpec", "run_chunk", "run_sweep", "summarize"]
+
+
+@dataclass(frozen=True)
+class Distribution:
+    """normal(mean, sd), lognormal(median, sigma of ln), uniform(low, high) or grid(values)."""
+
+    kind: str
+    a: float = np.nan
+    b: float = np.nan
+    values: tuple = ()
+
+    def draw(self, rng, n):
+        if self.kind == "normal":
+            return rng.normal(self.a, self.b, n)
+        if self.kind == "lognormal":
+            return self.a * np.exp(rng.normal(0.0, self.b, n))
+        if self.kind == "uniform":
+            return rng.uniform(self.a, self.b, n)
+        raise InputError(f"distribution {self.kind!r} is unknown; use normal, lognormal or uniform")
+
+
+@dataclass(frozen=True)
+class SweepSpec:
+    """Everything a chunk needs (plain, picklable data)."""
+
+    base: dict
+    inputs: dict                       # column -> Distribution
+    reactions: tuple                   # catalog names or reaction strings
+    activity_model: str = "bdot"
+    n: int = 1000
+    chunk_size: int = 10_000
+    seed: int = 0
+    supply: object = None
+    cells: CellRequirement = field(default_factory=CellRequirement)
+
+    @property
+    def is_grid(self):
+        return any(d.kind == "grid" for d in self.inputs.values())
+
+    @property
+    def total(self):
+        if self.is_grid:
+            return int(np.prod([len(d.values) for d in self.inputs.values()]))
+        return self.n
+
+    @property
+    def n_chunks(self):
+        return -(-self.total // self.chunk_size)
+
+
+def _inputs_for_chunk(spec, index):
+    start = index * spec.chunk_size
+    stop = min(start + spec.chunk_size, spec.total)
+    if spec.is_grid:
+        if any(d.kind != "grid" for d in spec.inputs.values()):
+            raise InputError("sweep: combine grid inputs with each other only, not with distributions")
+        grid = list(itertools.product(*[d.values for d in spec.inputs.values()]))[start:stop]
+        return {c: np.array([g[i] for g in grid], float) for i, c in enumerate(spec.inputs)}, start
+    rng = np.random.default_rng(np.random.SeedSequence([spec.seed, index]))
+    return {c: d.draw(rng, stop - start) for c, d in spec.inputs.items()}, start
+
+
+def _chunk_frame(spec, index):
+    drawn, start = _inputs_for_chunk(spec, index)
+    n = len(next(iter(drawn.values())))
+    frame = pd.DataFrame({k: [v] * n for k, v in spec.base.items() if k not in drawn})
+    for c, v in drawn.items():
+        frame[c] = v
+    frame["sample"] = [f"draw{start + i}" for i in range(n)]
+    return frame, drawn, start
+
+
+def run_chunk(spec, index, out_dir):
+    """Compute chunk ``index`` and write it; returns its path. Safe to call on a dask worker."""
+    db = default_database()
+    frame, drawn, start = _chunk_frame(spec, index)
+    samples = read_samples(frame, db=db)
+    result = speciate(samples, spec.activity_model, db=db)
+    reactions = resolve_reactions(list(spec.reactions), db=db)
+    W, rho = samples.water_fraction_and_density(db)
+    e = insitu_energetics(result, reactions, db=db, water_per_kg_solution=W, density_kg_L=rho)
+    out = pd.DataFrame({"draw": np.arange(start, start + len(frame))})
+    for c, v in drawn.items():
+        out[f"input:{c}"] = v
+    out["pH_insitu"] = result.pH
+    if spec.supply is not None:
+        power = power_per_volume(spec.supply, e)
+        low_W, high_W = power_per_cell_W(spec.cells, result.T_K)
+    for r, x in enumerate(reactions):
+        out[f"{x.name}|dGr_kJ_per_mol"] = e.dGr[:, r] / 1e3
+        out[f"{x.name}|energy_density_J_per_kg"] = e.energy_density_J_per_kg[:, r]
+        if spec.supply is not None:
+            out[f"{x.name}|power_W_per_m3"] = power[:, r]
+            out[f"{x.name}|cells_per_m3_low"] = power[:, r] / high_W
+            out[f"{x.name}|cells_per_m3_high"] = power[:, r] / low_W
+    path = Path(out_dir) / f"chunk_{index:05d}.parquet"
+    tmp = path.with_suffix(".partial")
+    out.to_parquet(tmp, index=False)
+    os.replace(tmp, path)   # a chunk on disk is always complete
+    return str(path)
+
+
+def _progress(done, total, quiet):
+    if not quiet:
+        width = 30
+        filled = int(width * done / max(total, 1))
+        sys.stderr.write(f"\r[{'#' * filled}{'.' * (width - filled)}] {done}/{total} chunks")
+        sys.stderr.flush()
+        if done == total:
+            sys.stderr.write("\n")
+
+
+def run_sweep(spec, out_dir, workers=None, scheduler=None, quiet=False):
+    """Run every chunk not yet on disk (in-process, on ``workers`` local dask workers, or on the
+    dask scheduler at ``scheduler``); returns the summary (see :func:`summarize`)."""
+    out = Path(out_dir)
+    out.mkdir(parents=True, exist_ok=True)
+    todo = [i for i in range(spec.n_chunks) if not (out / f"chunk_{i:05d}.parquet").exists()]
+    done = spec.n_chunks - len(todo)
+    _progress(done, spec.n_chunks, quiet)
+    if workers or scheduler:
+        from dask.distributed import Client, LocalCluster, as_completed
+
+        cluster = None if scheduler else LocalCluster(n_workers=int(workers), threads_per_worker=1,
+                                                      processes=True, dashboard_address=None)
+        with Client(scheduler or cluster) as client:
+            futures = client.map(run_chunk, [spec] * len(todo), todo, [str(out)] * len(todo), pure=False)
+            for _ in as_completed(futures):
+                done += 1
+                _progress(done, spec.n_chunks, quiet)
+        if cluster is not None:
+            cluster.close()
+    else:
+        for i in todo:
+            run_chunk(spec, i, out)
+            done += 1
+            _progress(done, spec.n_chunks, quiet)
+    return summarize(out)
+
+
+def _ranks(x):
+    return pd.Series(x).rank().to_numpy()
+
+
+def summarize(out_dir, percentiles=(5, 50, 95)):
+    """Percentiles of every output, and Spearman rank correlations of outputs with the inputs."""
+    frame = pd.concat([pd.read_parquet(p) for p in sorted(Path(out_dir).glob("chunk_*.parquet"))],
+                      ignore_index=True).sort_values("draw")
+    inputs = [c for c in frame.columns if c.startswith("input:")]
+    outputs = [c for c in frame.columns if "|" in c]
+    rows, corr = [], []
+    for c in outputs:
+        reaction, quantity = c.split("|")
+        values = frame[c].to_numpy(float)
+        finite = np.isfinite(values)
+        row = {"reaction": reaction, "quantity": quantity, "n": int(finite.sum())}
+        for p in percentiles:
+            row[f"p{p}"] = np.percentile(values[finite], p) if finite.any() else np.nan
+        rows.append(row)
+        for i in inputs:
+            x = frame[i].to_numpy(float)
+            ok = finite & np.isfinite(x)
+            rho = np.corrcoef(_ranks(x[ok]), _ranks(values[ok]))[0, 1] if ok.sum() > 2 else np.nan
+            corr.append({"reaction": reaction, "quantity": quantity, "input": i[6:], "spearman_rho": rho})
+    return pd.DataFrame(rows), pd.DataFrame(corr), frame

@@ -1,0 +1,73 @@
+"""Monte Carlo, grids, chunked Parquet output, resumption and dask runs."""
+
+import numpy as np
+import pytest
+from statistics import NormalDist
+
+from redoxgibbs.sweeps.runner import Distribution, SweepSpec, run_chunk, run_sweep
+
+R = 8.314462618
+BASE = {"T [degC]": 25.0, "P [bar]": 1.0, "pH": 7.0, "Na+ [mmol/kg]": 1.0, "Cl- [mmol/kg]": 1.0,
+        "O2(aq) [umol/kg]": 200.0}
+
+
+def _spec(n=4000, chunk=1000, seed=11, sigma=0.8):
+    return SweepSpec(base=BASE, inputs={"H2(aq) [umol/kg]": Distribution("lognormal", 10.0, sigma)},
+                     reactions=("aerobic hydrogen oxidation",), activity_model="ideal", n=n,
+                     chunk_size=chunk, seed=seed)
+
+
+def test_monte_carlo_matches_the_closed_form(tmp_path):
+    # 2 H2(aq) + O2(aq) = 2 H2O(l), ideal activities: dGr = c - 2 RT ln m(H2), with ln m(H2) normal
+    # (lognormal H2), so the p-th percentile of dGr is c - 2 RT (ln median + sigma z_(1-p)).
+    # Tolerance: four standard errors of a sample percentile, sqrt(p(1-p)/N) / phi(z) x sd.
+    spec = _spec()
+    pct, corr, frame = run_sweep(spec, tmp_path, quiet=True)
+    dGr = frame["aerobic hydrogen oxidation|dGr_kJ_per_mol"].to_numpy() * 1e3
+    m = frame["input:H2(aq) [umol/kg]"].to_numpy() * 1e-6
+    c = np.median(dGr + 2 * R * 298.15 * np.log(m))   # the constant, read off the draws
+    sd = 2 * R * 298.15 * spec.inputs["H2(aq) [umol/kg]"].b
+    row = pct[pct["quantity"] == "dGr_kJ_per_mol"].iloc[0]
+    for p in (5, 50, 95):
+        z = NormalDist().inv_cdf(1 - p / 100)
+        expected = c - 2 * R * 298.15 * (np.log(10e-6) + spec.inputs["H2(aq) [umol/kg]"].b * z)
+        se = np.sqrt(p / 100 * (1 - p / 100) / spec.n) / NormalDist().pdf(z) * sd
+        assert row[f"p{p}"] * 1e3 == pytest.approx(expected, abs=4 * se)
+    rho = corr[(corr["quantity"] == "dGr_kJ_per_mol")]["spearman_rho"].iloc[0]
+    assert rho == pytest.approx(-1.0, abs=1e-9)   # dGr falls monotonically with H2
+
+
+def test_seeded_and_reproducible(tmp_path):
+    a = run_sweep(_spec(n=1500, chunk=500), tmp_path / "a", quiet=True)[2]
+    b = run_sweep(_spec(n=1500, chunk=500), tmp_path / "b", quiet=True)[2]
+    c = run_sweep(_spec(n=1500, chunk=500, seed=12), tmp_path / "c", quiet=True)[2]
+    assert a.equals(b) and not a.equals(c)
+
+
+def test_interrupted_sweep_resumes_from_chunks_on_disk(tmp_path):
+    spec = _spec(n=1500, chunk=500)
+    full = run_sweep(spec, tmp_path / "full", quiet=True)[2]
+    part = tmp_path / "part"
+    part.mkdir()
+    run_chunk(spec, 1, part)            # a run stopped after one chunk
+    stamp = (part / "chunk_00001.parquet").stat().st_mtime_ns
+    resumed = run_sweep(spec, part, quiet=True)[2]
+    assert (part / "chunk_00001.parquet").stat().st_mtime_ns == stamp   # not recomputed
+    assert resumed.reset_index(drop=True).equals(full.reset_index(drop=True))
+
+
+def test_grid_sweep_is_the_product_of_the_values(tmp_path):
+    spec = SweepSpec(base=BASE, inputs={"T [degC]": Distribution("grid", values=(5.0, 25.0, 60.0)),
+                                         "H2(aq) [umol/kg]": Distribution("grid", values=(1.0, 100.0))},
+                     reactions=("aerobic hydrogen oxidation",), activity_model="ideal", chunk_size=4)
+    frame = run_sweep(spec, tmp_path, quiet=True)[2]
+    assert len(frame) == 6 and spec.n_chunks == 2
+    assert sorted(set(frame["input:T [degC]"])) == [5.0, 25.0, 60.0]
+
+
+def test_two_worker_dask_cluster_gives_the_in_process_result(tmp_path):
+    pytest.importorskip("dask.distributed")
+    spec = _spec(n=1200, chunk=300)
+    local = run_sweep(spec, tmp_path / "local", quiet=True)[2]
+    dask = run_sweep(spec, tmp_path / "dask", workers=2, quiet=True)[2]
+    assert local.reset_index(drop=True).equals(dask.reset_index(drop=True))
