@@ -71,3 +71,16 @@ def test_two_worker_dask_cluster_gives_the_in_process_result(tmp_path):
     local = run_sweep(spec, tmp_path / "local", quiet=True)[2]
     dask = run_sweep(spec, tmp_path / "dask", workers=2, quiet=True)[2]
     assert local.reset_index(drop=True).equals(dask.reset_index(drop=True))
+
+
+def test_tabulated_water_path_agrees_with_the_exact_one(tmp_path):
+    from dataclasses import replace
+
+    spec = SweepSpec(base=BASE, inputs={"T [degC]": Distribution("uniform", 2.0, 60.0),
+                                         "H2(aq) [umol/kg]": Distribution("lognormal", 10.0, 0.5)},
+                     reactions=("aerobic hydrogen oxidation",), activity_model="bdot", n=600, chunk_size=300)
+    exact = run_sweep(spec, tmp_path / "exact", quiet=True)[2]
+    table = run_sweep(replace(spec, water="tabulated"), tmp_path / "table", quiet=True)[2]
+    col = "aerobic hydrogen oxidation|dGr_kJ_per_mol"
+    # the table's bound on log K (1e-6) is a few uJ/mol here
+    assert np.max(np.abs(exact[col].to_numpy() - table[col].to_numpy())) < 1e-5

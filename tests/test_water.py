@@ -159,3 +159,26 @@ def test_debye_hueckel_parameters_against_helgeson_kirkham_1974(T_C, A_ref, B_re
     assert debye_hueckel_A(T, rho, eps) == pytest.approx(A_ref, rel=0.006 if T_C <= 200 else 0.012)
     assert debye_hueckel_B(T, rho, eps) == pytest.approx(B_ref, rel=0.004)
 
+
+
+def test_water_table_error_bound_against_the_exact_path():
+    # the bound stated in redoxgibbs/water/table.py, checked on random states of its range
+    from redoxgibbs.water.table import WaterTable
+
+    table = WaterTable((273.16, 473.15), (20.0, 1000.0))
+    rng = np.random.default_rng(2)
+    T, P = rng.uniform(273.2, 473.1, 2000), rng.uniform(20.0, 1000.0, 2000)
+    exact, approx = water_state(T, P), table(T, P)
+    rel = lambda f: np.max(np.abs(getattr(approx, f) / getattr(exact, f) - 1))
+    ab = lambda f: np.max(np.abs(getattr(approx, f) - getattr(exact, f)))
+    assert rel("density_kg_m3") < 5e-8 and ab("G_J_mol") < 1e-4 and ab("H_J_mol") < 1e-3
+    assert ab("S_J_mol_K") < 1e-5 and ab("Cp_J_mol_K") < 1e-4 and ab("alpha_per_K") < 5e-9
+    assert rel("beta_per_bar") < 2e-6 and ab("dalpha_dT_per_K2") < 2e-8
+    from redoxgibbs.reactions.reaction import Reaction
+    from redoxgibbs.species.properties import standard_properties
+    rxn = Reaction("H2O(l) = H+ + OH-")
+    G_exact = standard_properties(rxn.species, T, P).G @ rxn.coefficients
+    G_table = standard_properties(rxn.species, T, P, water=table).G @ rxn.coefficients
+    assert np.max(np.abs(G_table - G_exact) / (8.314462618 * T * np.log(10))) < 1e-6
+    with pytest.raises(OutOfValidityError, match="outside the water table"):
+        table(500.0, 100.0)

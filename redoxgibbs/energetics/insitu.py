@@ -13,6 +13,7 @@ import pandas as pd
 
 from ..species.database import R_J_MOL_K, default_database
 from ..species.properties import standard_properties
+from ..water.iapws95 import water_state
 
 __all__ = ["InsituEnergetics", "insitu_energetics", "gibbs_energy_kernel", "energy_density_kernel",
            "DEFAULT_MINIMUM_ENERGY_KJ"]
@@ -138,7 +139,7 @@ def _activity_columns(result, names, db, gas_fugacity):
 
 
 def insitu_energetics(result, reactions, db=None, minimum_energy_kJ=DEFAULT_MINIMUM_ENERGY_KJ,
-                      gas_fugacity=None, water_per_kg_solution=None, density_kg_L=None):
+                      gas_fugacity=None, water_per_kg_solution=None, density_kg_L=None, water=water_state):
     """Gibbs energies and energy densities of ``reactions`` (NamedReaction) in speciated samples."""
     db = default_database() if db is None else db
     names = sorted({s for x in reactions for s in x.reaction.species})
@@ -146,7 +147,7 @@ def insitu_energetics(result, reactions, db=None, minimum_energy_kJ=DEFAULT_MINI
     for r, x in enumerate(reactions):
         for s, c in zip(x.reaction.species, x.reaction.coefficients):
             nu[names.index(s), r] = c
-    props = standard_properties(names, result.T_K, result.P_bar, db=db, properties=("G",))
+    props = standard_properties(names, result.T_K, result.P_bar, db=db, properties=("G",), water=water)
     dG0 = props.G @ nu
     la, amounts = _activity_columns(result, names, db, gas_fugacity or {})
     # measured zeros: with a zero reactant the reaction cannot run (dGr = +inf, no energy); with a

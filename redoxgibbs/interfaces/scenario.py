@@ -15,7 +15,8 @@ Schema (annotated example: examples/demo_scenario.toml):
   name), ``draws``, ``seed``, ``chunk_size``, and ``[uncertainty.inputs]`` mapping a sample
   column to ``{distribution = "normal", mean, sd}``, ``{distribution = "lognormal", median,
   sigma_ln}`` or ``{distribution = "uniform", low, high}``; ``[sweep.inputs]`` maps a column to a
-  list of values (their product is swept)
+  list of values (their product is swept); ``water`` = exact | tabulated (interpolated water
+  properties, see redoxgibbs/water/table.py for the error bound)
 """
 
 import sys
@@ -162,4 +163,5 @@ def sweep_spec(scenario):
                                                                 for x in scenario.reactions),
                      activity_model=scenario.activity_model, n=int(section.get("draws", 1000)),
                      chunk_size=int(section.get("chunk_size", 10_000)), seed=int(section.get("seed", 0)),
-                     supply=scenario.supplies[0] if scenario.supplies else None, cells=scenario.cells)
+                     supply=scenario.supplies[0] if scenario.supplies else None, cells=scenario.cells,
+                     water=section.get("water", "exact"))

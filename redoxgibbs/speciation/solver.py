@@ -19,7 +19,7 @@ from ..species.database import R_J_MOL_K, default_database
 from ..species.properties import standard_properties
 from ..water.born import debye_hueckel_A, debye_hueckel_B
 from ..water.dielectric import dielectric_johnson_norton_1991
-from ..water.iapws95 import psat_convention_bar
+from ..water.iapws95 import psat_convention_bar, water_state
 from .samples import SampleSet, read_samples
 from .system import build_system
 
@@ -80,10 +80,10 @@ class SpeciationResult:
             "density_estimated": self.density_estimated, "newton_iterations": self.iterations})
 
 
-def _log_k(system, db, T_K, P_bar):
+def _log_k(system, db, T_K, P_bar, water):
     """log10 K of formation from the masters of every species and mineral, and water density."""
     names = system.species + system.minerals + ["H2O(l)"]
-    props = standard_properties(names, T_K, P_bar, db=db, properties=("G",))
+    props = standard_properties(names, T_K, P_bar, db=db, properties=("G",), water=water)
     G = props.G
     n_sp, n_min = len(system.species), len(system.minerals)
     G_w = G[:, n_sp + n_min]
@@ -182,13 +182,14 @@ def _newton(system, model, logK, A, B, T_K, totals, fixed_log_a, log_aH, charge_
 
 
 def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, db=None,
-             charge_balance_target=None):
+             charge_balance_target=None, water=water_state):
     """Speciate a sample table (path, DataFrame or :class:`SampleSet`) at in-situ T and P.
 
     pH: given at in-situ T; or measured at ``pH T`` and carried to in-situ T, P by re-speciating at
     constant totals and charge balance; or, when missing and ``pH_from_charge_balance`` is set,
     solved from charge balance: sum z m = ``charge_balance_target`` [eq/kg water] (default 0; a
-    mixture carries its end-members' imbalance, i.e. their alkalinity).
+    mixture carries its end-members' imbalance, i.e. their alkalinity). ``water``: the exact
+    water path or a :class:`~redoxgibbs.water.table.WaterTable`.
     """
     db = default_database() if db is None else db
     s = samples if isinstance(samples, SampleSet) else read_samples(samples, db=db)
@@ -213,11 +214,11 @@ def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, 
                               else np.full(n, np.nan) for mname in masters])
 
     def stage(T_K, P_bar, log_aH, charge_target, solve_H):
-        logK, logK_min, rho = _log_k(system, db, T_K, P_bar)
+        logK, logK_min, rho = _log_k(system, db, T_K, P_bar, water)
         fixed = np.full((n, k), np.nan)
         if gas_masters:
             props = standard_properties(list(gas_masters) + list(gas_masters.values()), T_K, P_bar,
-                                        db=db, properties=("G",))
+                                        db=db, properties=("G",), water=water)
             g = len(gas_masters)
             logK_gas = -(props.G[:, g:] - props.G[:, :g]) / (R_J_MOL_K * T_K[:, None] * LN10)
             for j, (gas, aq) in enumerate(gas_masters.items()):

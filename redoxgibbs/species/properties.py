@@ -160,12 +160,13 @@ def _formation_block(db, formation, index, T, arrays, flags, properties):
     flags["formation_enthalpy_missing"][:, fcols] |= missing & np.any(T != 298.15)
 
 
-def standard_properties(names, T_K, P_bar, db=None, properties=ALL_PROPERTIES):
+def standard_properties(names, T_K, P_bar, db=None, properties=ALL_PROPERTIES, water=water_state):
     """Standard-state G, H, S, Cp, V of species ``names`` at 1-D arrays ``T_K`` [K], ``P_bar`` [bar].
 
     States must already be liquid or supercritical water (the water layer refuses others).
     ``properties`` limits the HKF work to what is asked (the others are NaN for HKF species);
-    without "Cp" the water second derivative is skipped.
+    without "Cp" the water second derivative is skipped. ``water``: the water-state function,
+    the exact IAPWS-95 path or a :class:`~redoxgibbs.water.table.WaterTable`.
     """
     db = default_database() if db is None else db
     names = [db.resolve(n) for n in names]
@@ -175,7 +176,7 @@ def standard_properties(names, T_K, P_bar, db=None, properties=ALL_PROPERTIES):
     validate_states(T, P)
     everything = _closure(db, names)
     needs_water = any(db.record(x).model in ("hkf", "iapws95") for x in everything)
-    water = water_state(T, P, caloric="Cp" in properties) if needs_water else None
+    water = water(T, P, caloric="Cp" in properties) if needs_water else None
     index = {n: i for i, n in enumerate(everything)}
     n, m = T.size, len(everything)
     G, H, S, Cp, V = (np.zeros((n, m)) for _ in range(5))

@@ -25,6 +25,8 @@ from ..errors import InputError
 from ..species.database import default_database
 from ..speciation.samples import read_samples
 from ..speciation.solver import speciate
+from ..water.iapws95 import water_state
+from ..water.table import WaterTable
 
 __all__ = ["Distribution", "SweepSpec", "run_chunk", "run_sweep", "summarize"]
 
@@ -61,6 +63,7 @@ class SweepSpec:
     seed: int = 0
     supply: object = None
     cells: CellRequirement = field(default_factory=CellRequirement)
+    water: str = "exact"               # or "tabulated": a WaterTable over each chunk's range
 
     @property
     def is_grid(self):
@@ -104,10 +107,16 @@ def run_chunk(spec, index, out_dir):
     db = default_database()
     frame, drawn, start = _chunk_frame(spec, index)
     samples = read_samples(frame, db=db)
-    result = speciate(samples, spec.activity_model, db=db)
+    water = water_state
+    if spec.water == "tabulated":
+        water = WaterTable((samples.T_K.min() - 2.0, samples.T_K.max() + 2.0),
+                           (max(samples.P_bar.min() - 20.0, 1.0), samples.P_bar.max() + 20.0))
+    elif spec.water != "exact":
+        raise InputError(f"sweep: water = {spec.water!r}; use 'exact' or 'tabulated'")
+    result = speciate(samples, spec.activity_model, db=db, water=water)
     reactions = resolve_reactions(list(spec.reactions), db=db)
     W, rho = samples.water_fraction_and_density(db)
-    e = insitu_energetics(result, reactions, db=db, water_per_kg_solution=W, density_kg_L=rho)
+    e = insitu_energetics(result, reactions, db=db, water_per_kg_solution=W, density_kg_L=rho, water=water)
     out = pd.DataFrame({"draw": np.arange(start, start + len(frame))})
     for c, v in drawn.items():
         out[f"input:{c}"] = v
