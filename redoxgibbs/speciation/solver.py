@@ -189,7 +189,8 @@ def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, 
     constant totals and charge balance; or, when missing and ``pH_from_charge_balance`` is set,
     solved from charge balance: sum z m = ``charge_balance_target`` [eq/kg water] (default 0; a
     mixture carries its end-members' imbalance, i.e. their alkalinity). ``water``: the exact
-    water path or a :class:`~redoxgibbs.water.table.WaterTable`.
+    water path or a :class:`~redoxgibbs.water.table.WaterTable` for the in-situ states (the
+    states where pH was measured always take the exact path).
     """
     db = default_database() if db is None else db
     s = samples if isinstance(samples, SampleSet) else read_samples(samples, db=db)
@@ -213,7 +214,7 @@ def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, 
     totals = np.column_stack([s.totals.get(mname, np.full(n, np.nan)) if mname not in gas_masters.values()
                               else np.full(n, np.nan) for mname in masters])
 
-    def stage(T_K, P_bar, log_aH, charge_target, solve_H):
+    def stage(T_K, P_bar, log_aH, charge_target, solve_H, water=water):
         logK, logK_min, rho = _log_k(system, db, T_K, P_bar, water)
         fixed = np.full((n, k), np.nan)
         if gas_masters:
@@ -235,7 +236,9 @@ def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, 
     shifted = ~missing_pH & (np.abs(s.pH_T_K - s.T_K) > 1e-9)
     if shifted.any():
         P_lab = psat_convention_bar(s.pH_T_K)
-        (m, lg, I, law, xH, its), _ = stage(s.pH_T_K, P_lab, -s.pH, np.zeros(n), np.zeros(n, bool))
+        # laboratory states are few and distinct: always the exact water path
+        (m, lg, I, law, xH, its), _ = stage(s.pH_T_K, P_lab, -s.pH, np.zeros(n), np.zeros(n, bool),
+                                            water=water_state)
         charge_target = np.where(shifted, m @ system.charge, charge_target)
         iterations += np.where(shifted, its, 0)
     solve_H = missing_pH | shifted

@@ -198,6 +198,7 @@ def summarize(out_dir, percentiles=(5, 50, 95)):
         for i in inputs:
             x = frame[i].to_numpy(float)
             ok = finite & np.isfinite(x)
-            rho = np.corrcoef(_ranks(x[ok]), _ranks(values[ok]))[0, 1] if ok.sum() > 2 else np.nan
+            with np.errstate(invalid="ignore", divide="ignore"):   # constant outputs give NaN
+                rho = np.corrcoef(_ranks(x[ok]), _ranks(values[ok]))[0, 1] if ok.sum() > 2 else np.nan
             corr.append({"reaction": reaction, "quantity": quantity, "input": i[6:], "spearman_rho": rho})
     return pd.DataFrame(rows), pd.DataFrame(corr), frame
