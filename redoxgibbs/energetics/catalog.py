@@ -80,12 +80,14 @@ def _packaged_table(filename):
 
 def catalog(db=None):
     """The named reactions, each balanced (a list of :class:`NamedReaction`)."""
-    db = default_database() if db is None else db
-    out = []
-    for _, row in _packaged_table("catalog.csv").iterrows():
-        rxn = Reaction(row["reaction"], db=db)
-        out.append(NamedReaction(row["name"], rxn, electrons_transferred(rxn), row["group"]))
-    return out
+    return list(_catalog_for(default_database() if db is None else db))
+
+
+@lru_cache(maxsize=4)
+def _catalog_for(db):
+    return tuple(NamedReaction(row["name"], rxn, electrons_transferred(rxn), row["group"])
+                 for _, row in _packaged_table("catalog.csv").iterrows()
+                 for rxn in [Reaction(row["reaction"], db=db)])
 
 
 def catalog_reaction(name, db=None):

@@ -113,6 +113,28 @@ class InsituEnergetics:
             return np.where(coef > 0, self.dGr / coef / 1e3, np.nan)
 
 
+def _joined_labels(mask, labels):
+    """Comma-joined labels where ``mask`` (n, labels, r) is set, as an object array (n, r).
+
+    Each reaction has few distinct patterns: they are found by packing a row's bits into one
+    integer, joined once each, and mapped back (no loop over samples).
+    """
+    n, m, r = mask.shape
+    out = np.empty((n, r), dtype=object)
+    labels = np.array(labels, dtype=object)
+    for k in range(r):
+        cols = np.flatnonzero(mask[:, :, k].any(axis=0))
+        if cols.size == 0:
+            out[:, k] = ""
+            continue
+        codes = mask[:, cols, k].astype(np.int64) @ (1 << np.arange(cols.size, dtype=np.int64))
+        unique, inverse = np.unique(codes, return_inverse=True)
+        texts = np.array([", ".join(labels[cols[(u >> np.arange(cols.size)) & 1 == 1]]) for u in unique],
+                         dtype=object)
+        out[:, k] = texts[inverse.ravel()]
+    return out
+
+
 def _activity_columns(result, names, db, gas_fugacity):
     """log10 activities (n, s) of ``names`` from a speciation result; NaN where unknown."""
     n = len(result.samples)
@@ -166,13 +188,10 @@ def insitu_energetics(result, reactions, db=None, minimum_energy_kJ=DEFAULT_MINI
     E, limiting = energy_density_kernel(np.nan_to_num(dGr, nan=0.0, posinf=0.0), amounts, consumed)
     E = np.where(unknown, np.nan, E)
     limiting_names = np.where(limiting >= 0, np.array(names + [""], dtype=object)[limiting], "")
-    missing = np.empty(dGr.shape, dtype=object)
-    flag_text = np.empty(dGr.shape, dtype=object)
-    flag_any = {k: (v.astype(float) @ (nu != 0)) > 0 for k, v in props.flags.items()}
-    for i in range(dGr.shape[0]):     # text columns only; the numbers above are vectorized
-        for r in range(dGr.shape[1]):
-            missing[i, r] = ", ".join(names[j] for j in np.flatnonzero(missing_mask[i, :, r]))
-            flag_text[i, r] = ", ".join(k for k, v in flag_any.items() if v[i, r])
+    missing = _joined_labels(missing_mask, names)
+    flag_names = list(props.flags)
+    flag_any = np.stack([(props.flags[k].astype(float) @ (nu != 0)) > 0 for k in flag_names], axis=1)
+    flag_text = _joined_labels(flag_any, flag_names)
     n = len(result.samples)
     return InsituEnergetics(
         samples=result.samples, reactions=list(reactions), T_K=result.T_K, P_bar=result.P_bar,
