@@ -4,11 +4,16 @@ import numpy as np
 import pytest
 from statistics import NormalDist
 
-from redoxgibbs.sweeps.runner import Distribution, SweepSpec, run_chunk, run_sweep
+from redoxgibbs.sweeps.runner import Distribution, SweepSpec, load_results, run_chunk, run_sweep
 
 R = 8.314462618
 BASE = {"T [degC]": 25.0, "P [bar]": 1.0, "pH": 7.0, "Na+ [mmol/kg]": 1.0, "Cl- [mmol/kg]": 1.0,
         "O2(aq) [umol/kg]": 200.0}
+
+
+def _run(spec, out, **kw):
+    run_sweep(spec, out, quiet=True, **kw)
+    return load_results(out)
 
 
 def _spec(n=4000, chunk=1000, seed=11, sigma=0.8):
@@ -22,7 +27,8 @@ def test_monte_carlo_matches_the_closed_form(tmp_path):
     # (lognormal H2), so the p-th percentile of dGr is c - 2 RT (ln median + sigma z_(1-p)).
     # Tolerance: four standard errors of a sample percentile, sqrt(p(1-p)/N) / phi(z) x sd.
     spec = _spec()
-    pct, corr, frame = run_sweep(spec, tmp_path, quiet=True)
+    pct, corr = run_sweep(spec, tmp_path, quiet=True)
+    frame = load_results(tmp_path)
     dGr = frame["aerobic hydrogen oxidation|dGr_kJ_per_mol"].to_numpy() * 1e3
     m = frame["input:H2(aq) [umol/kg]"].to_numpy() * 1e-6
     c = np.median(dGr + 2 * R * 298.15 * np.log(m))   # the constant, read off the draws
@@ -38,20 +44,20 @@ def test_monte_carlo_matches_the_closed_form(tmp_path):
 
 
 def test_seeded_and_reproducible(tmp_path):
-    a = run_sweep(_spec(n=1500, chunk=500), tmp_path / "a", quiet=True)[2]
-    b = run_sweep(_spec(n=1500, chunk=500), tmp_path / "b", quiet=True)[2]
-    c = run_sweep(_spec(n=1500, chunk=500, seed=12), tmp_path / "c", quiet=True)[2]
+    a = _run(_spec(n=1500, chunk=500), tmp_path / "a")
+    b = _run(_spec(n=1500, chunk=500), tmp_path / "b")
+    c = _run(_spec(n=1500, chunk=500, seed=12), tmp_path / "c")
     assert a.equals(b) and not a.equals(c)
 
 
 def test_interrupted_sweep_resumes_from_chunks_on_disk(tmp_path):
     spec = _spec(n=1500, chunk=500)
-    full = run_sweep(spec, tmp_path / "full", quiet=True)[2]
+    full = _run(spec, tmp_path / "full")
     part = tmp_path / "part"
     part.mkdir()
     run_chunk(spec, 1, part)            # a run stopped after one chunk
     stamp = (part / "chunk_00001.parquet").stat().st_mtime_ns
-    resumed = run_sweep(spec, part, quiet=True)[2]
+    resumed = _run(spec, part)
     assert (part / "chunk_00001.parquet").stat().st_mtime_ns == stamp   # not recomputed
     assert resumed.reset_index(drop=True).equals(full.reset_index(drop=True))
 
@@ -60,7 +66,7 @@ def test_grid_sweep_is_the_product_of_the_values(tmp_path):
     spec = SweepSpec(base=BASE, inputs={"T [degC]": Distribution("grid", values=(5.0, 25.0, 60.0)),
                                          "H2(aq) [umol/kg]": Distribution("grid", values=(1.0, 100.0))},
                      reactions=("aerobic hydrogen oxidation",), activity_model="ideal", chunk_size=4)
-    frame = run_sweep(spec, tmp_path, quiet=True)[2]
+    frame = _run(spec, tmp_path)
     assert len(frame) == 6 and spec.n_chunks == 2
     assert sorted(set(frame["input:T [degC]"])) == [5.0, 25.0, 60.0]
 
@@ -68,8 +74,8 @@ def test_grid_sweep_is_the_product_of_the_values(tmp_path):
 def test_two_worker_dask_cluster_gives_the_in_process_result(tmp_path):
     pytest.importorskip("dask.distributed")
     spec = _spec(n=1200, chunk=300)
-    local = run_sweep(spec, tmp_path / "local", quiet=True)[2]
-    dask = run_sweep(spec, tmp_path / "dask", workers=2, quiet=True)[2]
+    local = _run(spec, tmp_path / "local")
+    dask = _run(spec, tmp_path / "dask", workers=2)
     assert local.reset_index(drop=True).equals(dask.reset_index(drop=True))
 
 
@@ -79,8 +85,24 @@ def test_tabulated_water_path_agrees_with_the_exact_one(tmp_path):
     spec = SweepSpec(base=BASE, inputs={"T [degC]": Distribution("uniform", 2.0, 60.0),
                                          "H2(aq) [umol/kg]": Distribution("lognormal", 10.0, 0.5)},
                      reactions=("aerobic hydrogen oxidation",), activity_model="bdot", n=600, chunk_size=300)
-    exact = run_sweep(spec, tmp_path / "exact", quiet=True)[2]
-    table = run_sweep(replace(spec, water="tabulated"), tmp_path / "table", quiet=True)[2]
+    exact = _run(spec, tmp_path / "exact")
+    table = _run(replace(spec, water="tabulated"), tmp_path / "table")
     col = "aerobic hydrogen oxidation|dGr_kJ_per_mol"
     # the table's bound on log K (1e-6) is a few uJ/mol here
     assert np.max(np.abs(exact[col].to_numpy() - table[col].to_numpy())) < 1e-5
+
+
+def test_supply_rate_sweep_scales_power(tmp_path):
+    # power of a flow-through supply is linear in the flux: P = e F / V, computed by hand here
+    from redoxgibbs.energetics.power import Supply
+
+    spec = SweepSpec(base=BASE, inputs={"supply:flux_kg_per_s": Distribution("grid", values=(1.0, 3.0))},
+                     reactions=("aerobic hydrogen oxidation",), activity_model="ideal", chunk_size=10,
+                     supply=Supply("flow-through", flux_kg_per_s=1.0, volume_m3=10.0))
+    base = dict(BASE, **{"H2(aq) [umol/kg]": 5.0})
+    spec = SweepSpec(**{**vars(spec), "base": base})
+    frame = _run(spec, tmp_path)
+    e = frame["aerobic hydrogen oxidation|energy_density_J_per_kg"].to_numpy()
+    P = frame["aerobic hydrogen oxidation|power_W_per_m3"].to_numpy()
+    W = 1.0 / (1.0 + 1e-3 * (22.99 + 35.45) * 1e-3 + 5e-6 * 2.016e-3 + 200e-6 * 32.0e-3)
+    np.testing.assert_allclose(P, e * W * np.array([1.0, 3.0]) / 10.0, rtol=1e-6)

@@ -26,6 +26,7 @@ __all__ = ["Supply", "power_per_volume", "CellRequirement", "power_per_cell_W", 
 
 R = 8.31446261815324
 SECONDS_PER_YEAR = 365.25 * 86400
+SUPPLY_KINDS = ("flow-through", "turnover", "areal-flux", "rate")
 TIJHUIS_MG_KJ_PER_CMOL_H = 4.5
 TIJHUIS_EA_J_PER_MOL = 69400.0
 CARBON_G_PER_MOL = 12.011
@@ -64,7 +65,8 @@ def power_per_volume(supply, energetics):
     e_kg = energetics.energy_density_J_per_kg * energetics.water_per_kg_solution[:, None]
     e_L = e_kg * energetics.density_kg_L[:, None]
     affinity = np.where(energetics.dGr < 0, -energetics.dGr, 0.0)
-    supply.describe()  # validates the kind
+    if supply.kind not in SUPPLY_KINDS:
+        supply.describe()  # raises the error that names the known kinds
     if supply.kind == "flow-through":
         return e_kg * supply.flux_kg_per_s / supply.volume_m3
     if supply.kind == "turnover":

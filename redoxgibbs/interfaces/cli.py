@@ -149,8 +149,8 @@ def _sweep(args):
     from .scenario import load_scenario, sweep_spec
 
     spec = sweep_spec(load_scenario(args.scenario))
-    percentiles, correlations, _ = run_sweep(spec, args.out, workers=args.workers,
-                                             scheduler=args.scheduler, quiet=args.quiet)
+    percentiles, correlations = run_sweep(spec, args.out, workers=args.workers,
+                                          scheduler=args.scheduler, quiet=args.quiet)
     percentiles.to_csv(f"{args.out}/percentiles.csv", index=False)
     correlations.to_csv(f"{args.out}/rank_correlations.csv", index=False)
     print(percentiles.to_string(index=False, float_format=lambda v: f"{v:.4g}"))

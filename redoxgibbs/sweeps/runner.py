@@ -1,6 +1,7 @@
 """Grids and Monte Carlo draws over sample inputs, run in chunks that stream to Parquet.
 
-A sweep varies columns of one base sample (any sample-table column: T, P, pH, a total, ...).
+A sweep varies columns of one base sample (any sample-table column: T, P, pH, a total, ...) and
+fields of the supply model, named ``supply:FIELD`` (e.g. ``supply:flux_kg_per_s``).
 Monte Carlo inputs carry a distribution (normal, lognormal, uniform); grid inputs a list of
 values (their product is swept). Work runs in chunks; each chunk's draws come from its own seed,
 numpy's SeedSequence of (seed, chunk index), so results do not depend on who computes a chunk.
@@ -12,7 +13,7 @@ from the chunks already on disk. The same chunks run in-process or on a dask.dis
 import itertools
 import os
 import sys
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 from pathlib import Path
 
 import numpy as np
@@ -28,7 +29,7 @@ from ..speciation.solver import speciate
 from ..water.iapws95 import water_state
 from ..water.table import WaterTable
 
-__all__ = ["Distribution", "SweepSpec", "run_chunk", "run_sweep", "summarize"]
+__all__ = ["Distribution", "SweepSpec", "run_chunk", "run_sweep", "summarize", "load_results"]
 
 
 @dataclass(frozen=True)
@@ -97,7 +98,8 @@ def _chunk_frame(spec, index):
     n = len(next(iter(drawn.values())))
     frame = pd.DataFrame({k: [v] * n for k, v in spec.base.items() if k not in drawn})
     for c, v in drawn.items():
-        frame[c] = v
+        if not c.startswith("supply:"):
+            frame[c] = v
     frame["sample"] = [f"draw{start + i}" for i in range(n)]
     return frame, drawn, start
 
@@ -121,8 +123,14 @@ def run_chunk(spec, index, out_dir):
     for c, v in drawn.items():
         out[f"input:{c}"] = v
     out["pH_insitu"] = result.pH
+    supply_inputs = {c[7:]: v[:, None] for c, v in drawn.items() if c.startswith("supply:")}
+    if supply_inputs and spec.supply is None:
+        raise InputError("sweep: supply inputs need a [[supply]] model in the scenario")
     if spec.supply is not None:
-        power = power_per_volume(spec.supply, e)
+        unknown = set(supply_inputs) - set(vars(spec.supply))
+        if unknown:
+            raise InputError(f"sweep: supply fields {sorted(unknown)} are unknown; known: {sorted(vars(spec.supply))}")
+        power = power_per_volume(replace(spec.supply, **supply_inputs), e)
         low_W, high_W = power_per_cell_W(spec.cells, result.T_K)
     for r, x in enumerate(reactions):
         out[f"{x.name}|dGr_kJ_per_mol"] = e.dGr[:, r] / 1e3
@@ -150,7 +158,8 @@ def _progress(done, total, quiet):
 
 def run_sweep(spec, out_dir, workers=None, scheduler=None, quiet=False):
     """Run every chunk not yet on disk (in-process, on ``workers`` local dask workers, or on the
-    dask scheduler at ``scheduler``); returns the summary (see :func:`summarize`)."""
+    dask scheduler at ``scheduler``); returns (percentiles, rank correlations), see
+    :func:`summarize`; :func:`load_results` reads the per-draw table."""
     out = Path(out_dir)
     out.mkdir(parents=True, exist_ok=True)
     todo = [i for i in range(spec.n_chunks) if not (out / f"chunk_{i:05d}.parquet").exists()]
@@ -176,29 +185,47 @@ def run_sweep(spec, out_dir, workers=None, scheduler=None, quiet=False):
     return summarize(out)
 
 
+def _chunk_paths(out_dir):
+    return sorted(Path(out_dir).glob("chunk_*.parquet"))
+
+
+def load_results(out_dir, columns=None):
+    """The per-draw table of a sweep folder (all chunks, in draw order)."""
+    frame = pd.concat([pd.read_parquet(p, columns=columns) for p in _chunk_paths(out_dir)], ignore_index=True)
+    return frame.sort_values("draw").reset_index(drop=True) if "draw" in frame else frame
+
+
 def _ranks(x):
     return pd.Series(x).rank().to_numpy()
 
 
 def summarize(out_dir, percentiles=(5, 50, 95)):
-    """Percentiles of every output, and Spearman rank correlations of outputs with the inputs."""
-    frame = pd.concat([pd.read_parquet(p) for p in sorted(Path(out_dir).glob("chunk_*.parquet"))],
-                      ignore_index=True).sort_values("draw")
-    inputs = [c for c in frame.columns if c.startswith("input:")]
-    outputs = [c for c in frame.columns if "|" in c]
+    """Percentiles of every output and Spearman rank correlations of outputs with the inputs.
+
+    Reads one output column at a time, so memory stays at the inputs plus one column.
+    """
+    import pyarrow.parquet as pq
+
+    names = pq.read_schema(_chunk_paths(out_dir)[0]).names
+    inputs = [c for c in names if c.startswith("input:")]
+    outputs = [c for c in names if "|" in c]
+    draws = load_results(out_dir, ["draw"] + inputs)
+    input_ranks = {i: _ranks(draws[i].to_numpy(float)) for i in inputs}
     rows, corr = [], []
     for c in outputs:
         reaction, quantity = c.split("|")
-        values = frame[c].to_numpy(float)
+        values = load_results(out_dir, ["draw", c])[c].to_numpy(float)
         finite = np.isfinite(values)
         row = {"reaction": reaction, "quantity": quantity, "n": int(finite.sum())}
         for p in percentiles:
             row[f"p{p}"] = np.percentile(values[finite], p) if finite.any() else np.nan
         rows.append(row)
+        ranked = _ranks(values[finite]) if finite.any() else None
         for i in inputs:
-            x = frame[i].to_numpy(float)
-            ok = finite & np.isfinite(x)
-            with np.errstate(invalid="ignore", divide="ignore"):   # constant outputs give NaN
-                rho = np.corrcoef(_ranks(x[ok]), _ranks(values[ok]))[0, 1] if ok.sum() > 2 else np.nan
+            rho = np.nan
+            if finite.sum() > 2:
+                x_rank = input_ranks[i] if finite.all() else _ranks(draws[i].to_numpy(float)[finite])
+                with np.errstate(invalid="ignore", divide="ignore"):   # constant outputs give NaN
+                    rho = np.corrcoef(x_rank, ranked)[0, 1]
             corr.append({"reaction": reaction, "quantity": quantity, "input": i[6:], "spearman_rho": rho})
-    return pd.DataFrame(rows), pd.DataFrame(corr), frame
+    return pd.DataFrame(rows), pd.DataFrame(corr)
