@@ -9,7 +9,7 @@ import numpy as np
 import pandas as pd
 import pytest
 
-from redoxgibbs.energetics.catalog import catalog, electrons_transferred, enumerate_reactions
+from redoxgibbs.energetics.catalog import catalog, enumerate_reactions
 from redoxgibbs.energetics.insitu import energy_density_kernel, gibbs_energy_kernel, insitu_energetics
 from redoxgibbs.energetics.power import (CellRequirement, Supply, maintenance_tijhuis_1993_W_per_Cmol,
                                          power_per_cell_W, power_per_volume)

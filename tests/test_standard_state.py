@@ -7,7 +7,7 @@ from iapws._iapws import _Kw
 
 from redoxgibbs.reactions.reaction import reaction_properties
 from redoxgibbs.species.properties import standard_properties
-from redoxgibbs.water.iapws95 import psat_convention_bar, saturation_pressure_bar
+from redoxgibbs.water.iapws95 import saturation_pressure_bar
 
 R = 8.314462618
 LN10 = np.log(10)

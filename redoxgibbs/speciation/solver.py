@@ -127,10 +127,12 @@ def _newton(system, model, logK, A, B, T_K, totals, fixed_log_a, log_aH, charge_
     active = np.arange(n)
     abs_rows = np.abs(rows)
     # which unknowns have an equation is fixed per sample: group samples by that pattern once
-    pattern_of, pattern_keys = np.unique(frozen.astype(np.int64) @ (1 << np.arange(k + 1)), return_inverse=True)[::-1]
+    codes = frozen.astype(np.int64) @ (1 << np.arange(k + 1))
+    pattern_keys, pattern_of = np.unique(codes, return_inverse=True)
     pattern_free = [~frozen[np.flatnonzero(pattern_of == p)[0]] for p in range(pattern_keys.size)]
     W3 = W.reshape(-1, k + 1, k + 1)
     pattern_W = [W3[:, f][:, :, f].reshape(W.shape[0], -1) for f in pattern_free]
+    cols_masters = np.r_[np.arange(k), 0]  # the H+ column carries no gamma (a_H is the unknown)
 
     def molalities(idx, lg_now, aw_now):
         la = x[idx] + lg_now[:, cols_masters] * free_masters[idx]
@@ -138,7 +140,6 @@ def _newton(system, model, logK, A, B, T_K, totals, fixed_log_a, log_aH, charge_
         log_m = logK[idx] + la @ cols.T + aw_now[:, None] * nu_w - lg_now
         return 10.0 ** np.minimum(log_m, 3.0)
 
-    cols_masters = np.r_[np.arange(k), 0]  # the H+ column carries no gamma (a_H is the unknown)
     for _ in range(MAX_ITERATIONS):
         idx = slice(None) if active.size == n else active   # a view while all samples iterate
         # one fixed-point update of gamma and a_w at the current unknowns, then a Newton step at
