@@ -29,6 +29,7 @@ LN10 = np.log(10.0)
 ABSENT_LOG_M = -60.0       # log10 molality standing in for an unmeasured component
 MAX_STEP = 2.0             # largest Newton step in log10 units
 MAX_ITERATIONS = 300
+PRE_STEPS = 3              # continued-fraction steps before Newton
 TOLERANCE = 1e-11          # residuals, relative to each row's scale (mass balance to 1e-11)
 GAMMA_TOLERANCE = 1e-10    # change of log10 gamma between iterations
 
@@ -139,6 +140,16 @@ def _newton(system, model, logK, A, B, T_K, totals, fixed_log_a, log_aH, charge_
         la = np.where(is_fixed[idx], fixed_full[idx], la)
         log_m = logK[idx] + la @ cols.T + aw_now[:, None] * nu_w - lg_now
         return 10.0 ** np.minimum(log_m, 3.0)
+
+    # a few continued-fraction steps first (one molality evaluation each, no Jacobian): each
+    # master is scaled by total / (what the current guess puts in its mass balance)
+    balanced = measured & ~fixed
+    for _ in range(PRE_STEPS):
+        ma = molalities(slice(None), lg, log_aw)
+        held = ma @ system.nu
+        with np.errstate(divide="ignore", invalid="ignore"):
+            ratio = np.where(balanced, np.nan_to_num(totals) / np.where(held > 0, held, 1.0), 1.0)
+        x[:, :k] += np.clip(np.log10(np.where(ratio > 0, ratio, 1.0)), -MAX_STEP, MAX_STEP)
 
     for _ in range(MAX_ITERATIONS):
         idx = slice(None) if active.size == n else active   # a view while all samples iterate
