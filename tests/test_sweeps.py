@@ -106,3 +106,17 @@ def test_supply_rate_sweep_scales_power(tmp_path):
     P = frame["aerobic hydrogen oxidation|power_W_per_m3"].to_numpy()
     W = 1.0 / (1.0 + 1e-3 * (22.99 + 35.45) * 1e-3 + 5e-6 * 2.016e-3 + 200e-6 * 32.0e-3)
     np.testing.assert_allclose(P, e * W * np.array([1.0, 3.0]) / 10.0, rtol=1e-6)
+
+
+def test_grid_sweep_as_xarray(tmp_path):
+    from redoxgibbs.sweeps.runner import grid_dataset
+
+    spec = SweepSpec(base=BASE, inputs={"T [degC]": Distribution("grid", values=(5.0, 25.0, 60.0)),
+                                         "H2(aq) [umol/kg]": Distribution("grid", values=(1.0, 100.0))},
+                     reactions=("aerobic hydrogen oxidation",), activity_model="ideal", chunk_size=4)
+    run_sweep(spec, tmp_path, quiet=True)
+    ds = grid_dataset(spec, tmp_path)
+    da = ds["aerobic hydrogen oxidation|dGr_kJ_per_mol"]
+    assert da.dims == ("T [degC]", "H2(aq) [umol/kg]") and da.shape == (3, 2)
+    # more H2 makes the reaction more exergonic at every temperature (log Q falls)
+    assert bool((da.sel({"H2(aq) [umol/kg]": 100.0}) < da.sel({"H2(aq) [umol/kg]": 1.0})).all())

@@ -29,7 +29,7 @@ from ..speciation.solver import speciate
 from ..water.iapws95 import water_state
 from ..water.table import WaterTable
 
-__all__ = ["Distribution", "SweepSpec", "run_chunk", "run_sweep", "summarize", "load_results"]
+__all__ = ["Distribution", "SweepSpec", "run_chunk", "run_sweep", "summarize", "load_results", "grid_dataset"]
 
 
 @dataclass(frozen=True)
@@ -229,3 +229,18 @@ def summarize(out_dir, percentiles=(5, 50, 95)):
                     rho = np.corrcoef(x_rank, ranked)[0, 1]
             corr.append({"reaction": reaction, "quantity": quantity, "input": i[6:], "spearman_rho": rho})
     return pd.DataFrame(rows), pd.DataFrame(corr)
+
+
+def grid_dataset(spec, out_dir):
+    """A grid sweep's results as an xarray Dataset with one named dimension per grid input."""
+    import xarray as xr
+
+    if not spec.is_grid:
+        raise InputError("sweep: an xarray dataset needs a grid sweep (value lists, not distributions)")
+    frame = load_results(out_dir)
+    dims = list(spec.inputs)
+    shape = [len(spec.inputs[d].values) for d in dims]
+    coords = {d: list(spec.inputs[d].values) for d in dims}
+    data = {c: (dims, frame[c].to_numpy().reshape(shape)) for c in frame.columns
+            if "|" in c or c == "pH_insitu"}
+    return xr.Dataset(data, coords=coords)
