@@ -29,7 +29,7 @@ INPUTS = {"T [degC]": Distribution("uniform", 15.0, 45.0),
           "pH": Distribution("normal", 6.1, 0.1)}
 
 
-def spec(n, chunk=20_000):
+def spec(n, chunk=50_000):
     names = [x.name for x in catalog()
              if all(s in ("H2O(l)", "H+", "sulfur", "ferrihydrite", "goethite", "pyrolusite")
                     or s in {"Na+", "Cl-", "Mg^2+", "Ca^2+", "K+", "SO4^2-", "HCO3-", "HS-", "H2(aq)",
