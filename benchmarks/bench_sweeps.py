@@ -29,7 +29,7 @@ INPUTS = {"T [degC]": Distribution("uniform", 15.0, 45.0),
           "pH": Distribution("normal", 6.1, 0.1)}
 
 
-def spec(n, chunk=50_000):
+def spec(n, chunk=20_000):
     names = [x.name for x in catalog()
              if all(s in ("H2O(l)", "H+", "sulfur", "ferrihydrite", "goethite", "pyrolusite")
                     or s in {"Na+", "Cl-", "Mg^2+", "Ca^2+", "K+", "SO4^2-", "HCO3-", "HS-", "H2(aq)",
@@ -57,7 +57,7 @@ def main():
     peak_children = resource.getrusage(resource.RUSAGE_CHILDREN).ru_maxrss / 1024
     print(f"Monte Carlo on 2 workers: {seconds:.1f} s (target < 60 s); peak memory: client "
           f"{peak_self:.0f} MB, largest worker {peak_children:.0f} MB (target < 2 GB)")
-    minute = spec(800_000, chunk=40_000)
+    minute = spec(800_000, chunk=20_000)
     one, two = timed(minute, workers=1), timed(minute, workers=2)
     print(f"same sweep ({minute.n} draws): 1 worker {one:.1f} s, 2 workers {two:.1f} s, "
           f"throughput ratio {one / two:.2f} (target >= 1.6)")
