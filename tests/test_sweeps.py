@@ -120,3 +120,26 @@ def test_grid_sweep_as_xarray(tmp_path):
     assert da.dims == ("T [degC]", "H2(aq) [umol/kg]") and da.shape == (3, 2)
     # more H2 makes the reaction more exergonic at every temperature (log Q falls)
     assert bool((da.sel({"H2(aq) [umol/kg]": 100.0}) < da.sel({"H2(aq) [umol/kg]": 1.0})).all())
+
+
+def test_mixing_fraction_as_a_sweep_input(tmp_path):
+    # the sweep's mixtures are those of the mixing path computed directly
+    from redoxgibbs.energetics.catalog import resolve_reactions
+    from redoxgibbs.energetics.mixing import mixing_energetics
+
+    vent = {"sample": "vent", "T [degC]": 300.0, "P [bar]": 250.0, "pH": 4.0, "Na+ [mmol/kg]": 450.0,
+            "Cl- [mmol/kg]": 540.0, "HS- [mmol/kg]": 5.0, "H2(aq) [mmol/kg]": 1.0, "O2(aq) [umol/kg]": 0.0,
+            "SO4^2- [mmol/kg]": 0.5, "HCO3- [mmol/kg]": 5.0}
+    sea = {"sample": "sea", "T [degC]": 2.0, "P [bar]": 250.0, "pH": 7.9, "Na+ [mmol/kg]": 464.0,
+           "Cl- [mmol/kg]": 545.0, "HS- [mmol/kg]": 0.0, "H2(aq) [mmol/kg]": 0.0004, "O2(aq) [umol/kg]": 200.0,
+           "SO4^2- [mmol/kg]": 28.0, "HCO3- [mmol/kg]": 2.3}
+    fractions = (0.05, 0.2, 0.6)
+    spec = SweepSpec(base={}, inputs={"mixing:fraction": Distribution("grid", values=fractions)},
+                     reactions=("aerobic hydrogen oxidation",), chunk_size=2,
+                     mixing={"hydrothermal": vent, "seawater": sea, "temperature_rule": "enthalpy"})
+    swept = _run(spec, tmp_path)
+    import pandas as pd
+    direct = mixing_energetics(pd.DataFrame([vent, sea]), "vent", "sea",
+                               resolve_reactions(["aerobic hydrogen oxidation"]), fractions=list(fractions))
+    np.testing.assert_allclose(swept["aerobic hydrogen oxidation|dGr_kJ_per_mol"], direct["dGr_kJ_per_mol"], rtol=1e-9)
+    np.testing.assert_allclose(swept["pH_insitu"], direct["pH_insitu"], rtol=1e-9)

@@ -15,7 +15,9 @@ Schema (annotated example: examples/demo_scenario.toml):
   name), ``draws``, ``seed``, ``chunk_size``, and ``[uncertainty.inputs]`` mapping a sample
   column to ``{distribution = "normal", mean, sd}``, ``{distribution = "lognormal", median,
   sigma_ln}`` or ``{distribution = "uniform", low, high}``; ``[sweep.inputs]`` maps a column to a
-  list of values (their product is swept); ``water`` = exact | tabulated (interpolated water
+  list of values (their product is swept); instead of ``sample``, ``mixing = {hydrothermal =
+  NAME, seawater = NAME, temperature_rule = ...}`` sweeps the input ``"mixing:fraction"``;
+  ``water`` = exact | tabulated (interpolated water
   properties, see redoxgibbs/water/table.py for the error bound)
 """
 
@@ -152,10 +154,19 @@ def sweep_spec(scenario):
     section = scenario.raw.get("uncertainty") or scenario.raw.get("sweep")
     if not section:
         raise InputError("scenario: no [uncertainty] or [sweep] section to run")
-    rows = scenario.samples[scenario.samples["sample"].astype(str) == str(section.get("sample"))]
-    if rows.empty:
-        raise InputError(f"scenario: sweep base sample {section.get('sample')!r} is not a sample name")
-    base = {k: v for k, v in rows.iloc[0].items() if k != "site" and not (isinstance(v, float) and pd.isna(v))}
+    def row(name):
+        rows = scenario.samples[scenario.samples["sample"].astype(str) == str(name)]
+        if rows.empty:
+            raise InputError(f"scenario: sweep sample {name!r} is not a sample name")
+        return {k: v for k, v in rows.iloc[0].items() if k != "site" and not (isinstance(v, float) and pd.isna(v))}
+
+    mixing = section.get("mixing")
+    if mixing:
+        mixing = {"hydrothermal": row(mixing.get("hydrothermal")), "seawater": row(mixing.get("seawater")),
+                  "temperature_rule": mixing.get("temperature_rule", "enthalpy")}
+        base = {}
+    else:
+        base = row(section.get("sample"))
     inputs = {c: _distribution(c, d) for c, d in section.get("inputs", {}).items()}
     if not inputs:
         raise InputError("scenario: the sweep section names no inputs")
@@ -164,4 +175,4 @@ def sweep_spec(scenario):
                      activity_model=scenario.activity_model, n=int(section.get("draws", 1000)),
                      chunk_size=int(section.get("chunk_size", 10_000)), seed=int(section.get("seed", 0)),
                      supply=scenario.supplies[0] if scenario.supplies else None, cells=scenario.cells,
-                     water=section.get("water", "exact"))
+                     water=section.get("water", "exact"), mixing=mixing)

@@ -1,7 +1,9 @@
 """Grids and Monte Carlo draws over sample inputs, run in chunks that stream to Parquet.
 
 A sweep varies columns of one base sample (any sample-table column: T, P, pH, a total, ...) and
-fields of the supply model, named ``supply:FIELD`` (e.g. ``supply:flux_kg_per_s``).
+fields of the supply model, named ``supply:FIELD`` (e.g. ``supply:flux_kg_per_s``); or, with two
+end-members given, the mixing fraction ``mixing:fraction`` (each mixture re-speciated with pH
+from charge balance, as in redoxgibbs.energetics.mixing).
 Monte Carlo inputs carry a distribution (normal, lognormal, uniform); grid inputs a list of
 values (their product is swept). Work runs in chunks; each chunk's draws come from its own seed,
 numpy's SeedSequence of (seed, chunk index), so results do not depend on who computes a chunk.
@@ -24,6 +26,7 @@ from ..energetics.insitu import insitu_energetics
 from ..energetics.power import CellRequirement, power_per_cell_W, power_per_volume
 from ..errors import InputError
 from ..species.database import default_database
+from ..speciation.mixing import mixture_samples
 from ..speciation.samples import read_samples
 from ..speciation.solver import speciate
 from ..water.iapws95 import water_state
@@ -68,6 +71,7 @@ class SweepSpec:
     supply: object = None
     cells: CellRequirement = field(default_factory=CellRequirement)
     water: str = "exact"               # or "tabulated": a WaterTable over each chunk's range
+    mixing: dict = None                # {"hydrothermal": row, "seawater": row, "temperature_rule"}
 
     @property
     def is_grid(self):
@@ -107,18 +111,36 @@ def _chunk_frame(spec, index):
     return frame, drawn, start
 
 
+def _mixtures(spec, drawn, db):
+    """Mixtures of the spec's two end-members at the drawn fractions, and their charge targets."""
+    extra = set(drawn) - {"mixing:fraction"} - {c for c in drawn if c.startswith("supply:")}
+    if extra:
+        raise InputError(f"sweep: with mixing, only mixing:fraction and supply fields can vary, not {sorted(extra)}")
+    m = spec.mixing
+    ends = read_samples(pd.DataFrame([m["hydrothermal"], m["seawater"]]), db=db)
+    charge = speciate(ends, spec.activity_model, db=db).charge_imbalance
+    mixed, target, _ = mixture_samples(ends, ends.names[0], ends.names[1], drawn["mixing:fraction"], db,
+                                       charge, m.get("temperature_rule", "enthalpy"))
+    return mixed, target
+
+
 def run_chunk(spec, index, out_dir):
     """Compute chunk ``index`` and write it; returns its path. Safe to call on a dask worker."""
     db = default_database()
     frame, drawn, start = _chunk_frame(spec, index)
-    samples = read_samples(frame, db=db)
+    if spec.mixing:
+        samples, charge_target = _mixtures(spec, drawn, db)
+        frame = frame.iloc[:len(samples)]
+    else:
+        samples, charge_target = read_samples(frame, db=db), None
     water = water_state
     if spec.water == "tabulated":
         water = WaterTable((samples.T_K.min() - 2.0, samples.T_K.max() + 2.0),
                            (max(samples.P_bar.min() - 20.0, 1.0), samples.P_bar.max() + 20.0))
     elif spec.water != "exact":
         raise InputError(f"sweep: water = {spec.water!r}; use 'exact' or 'tabulated'")
-    result = speciate(samples, spec.activity_model, db=db, water=water)
+    result = speciate(samples, spec.activity_model, db=db, water=water,
+                      pH_from_charge_balance=spec.mixing is not None, charge_balance_target=charge_target)
     reactions = resolve_reactions(list(spec.reactions), db=db)
     W, rho = samples.water_fraction_and_density(db)
     e = insitu_energetics(result, reactions, db=db, water_per_kg_solution=W, density_kg_L=rho, water=water)
