@@ -81,9 +81,12 @@ class SpeciationResult:
             "density_estimated": self.density_estimated, "newton_iterations": self.iterations})
 
 
-def _log_k(system, db, T_K, P_bar, water):
-    """log10 K of formation from the masters of every species and mineral, and water density."""
-    names = system.species + system.minerals + ["H2O(l)"]
+def _log_k(system, db, T_K, P_bar, water, gas_masters):
+    """log10 K of formation from the masters of every species and mineral, log10 K of each
+    gas -> dissolved-master reaction (``gas_masters``: gas -> master), and water density; one
+    evaluation of the standard states for all of them."""
+    gases = list(gas_masters)
+    names = system.species + system.minerals + ["H2O(l)"] + gases
     props = standard_properties(names, T_K, P_bar, db=db, properties=("G",), water=water)
     G = props.G
     n_sp, n_min = len(system.species), len(system.minerals)
@@ -92,7 +95,9 @@ def _log_k(system, db, T_K, P_bar, water):
     RT = R_J_MOL_K * T_K[:, None] * LN10
     dG_sp = G[:, :n_sp] - G_masters @ system.nu.T - G_w[:, None] * system.nu_w
     dG_min = G[:, n_sp:n_sp + n_min] - G_masters @ system.nu_min.T - G_w[:, None] * system.nu_w_min
-    return -dG_sp / RT, -dG_min / RT, props.water_density_kg_m3
+    G_aq = G[:, [system.species.index(gas_masters[g]) for g in gases]]
+    dG_gas = G_aq - G[:, n_sp + n_min + 1:]
+    return -dG_sp / RT, -dG_min / RT, -dG_gas / RT, props.water_density_kg_m3
 
 
 def _newton(system, model, logK, A, B, T_K, totals, fixed_log_a, log_aH, charge_target, solve_H):
@@ -227,16 +232,11 @@ def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, 
                               else np.full(n, np.nan) for mname in masters])
 
     def stage(T_K, P_bar, log_aH, charge_target, solve_H, water=water):
-        logK, logK_min, rho = _log_k(system, db, T_K, P_bar, water)
+        logK, logK_min, logK_gas, rho = _log_k(system, db, T_K, P_bar, water, gas_masters)
         fixed = np.full((n, k), np.nan)
-        if gas_masters:
-            props = standard_properties(list(gas_masters) + list(gas_masters.values()), T_K, P_bar,
-                                        db=db, properties=("G",), water=water)
-            g = len(gas_masters)
-            logK_gas = -(props.G[:, g:] - props.G[:, :g]) / (R_J_MOL_K * T_K[:, None] * LN10)
-            for j, (gas, aq) in enumerate(gas_masters.items()):
-                with np.errstate(divide="ignore"):
-                    fixed[:, masters.index(aq)] = np.log10(s.gas_fugacity_bar[gas]) + logK_gas[:, j]
+        for j, (gas, aq) in enumerate(gas_masters.items()):
+            with np.errstate(divide="ignore"):
+                fixed[:, masters.index(aq)] = np.log10(s.gas_fugacity_bar[gas]) + logK_gas[:, j]
         eps = dielectric_johnson_norton_1991(T_K, rho)[0]
         A, B = debye_hueckel_A(T_K, rho, eps), debye_hueckel_B(T_K, rho, eps)
         out = _newton(system, model, logK, A, B, T_K, totals, fixed, log_aH, charge_target, solve_H)

@@ -182,6 +182,17 @@ def _alpha_at(phase, T, P_Pa, rho_near):
     return phase.thermal_expansion_coeff
 
 
+def _dalpha_dT(phase, T, P_Pa, rho, alpha):
+    """(d alpha / dT) at constant P by a central difference of +-0.05 K (one-sided at 273.16 K)."""
+    dT = min(_DT_FOR_DALPHA, T - T_TRIPLE_K)
+    if dT > 1e-3:
+        a_hi = _alpha_at(phase, T + dT, P_Pa, rho * (1 - alpha * dT))
+        a_lo = _alpha_at(phase, T - dT, P_Pa, rho * (1 + alpha * dT))
+        return (a_hi - a_lo) / (2 * dT)
+    dT = _DT_FOR_DALPHA
+    return (_alpha_at(phase, T + dT, P_Pa, rho * (1 - alpha * dT)) - alpha) / dT
+
+
 def _evaluate_cantera(T, P_Pa, caloric=True):
     """Evaluate 1-D arrays of distinct warm states (T >= 273.16 K) through cantera."""
     phase = _phase()
@@ -203,20 +214,7 @@ def _evaluate_cantera(T, P_Pa, caloric=True):
             out[4, i] = phase.cp_mole
         else:
             out[2:5, i] = np.nan
-        dT = _DT_FOR_DALPHA
-        if not caloric:
-            out[7, i] = np.nan
-        elif t - dT < T_TRIPLE_K:
-            dT = t - T_TRIPLE_K if t - T_TRIPLE_K > 1e-3 else 0.0
-        if not caloric:
-            pass
-        elif dT > 0:
-            a_hi = _alpha_at(phase, t + dT, p, rho * (1 - alpha * dT))
-            a_lo = _alpha_at(phase, t - dT, p, rho * (1 + alpha * dT))
-            out[7, i] = (a_hi - a_lo) / (2 * dT)
-        else:  # right at the triple point: one-sided difference
-            a_hi = _alpha_at(phase, t + _DT_FOR_DALPHA, p, rho * (1 - alpha * _DT_FOR_DALPHA))
-            out[7, i] = (a_hi - alpha) / _DT_FOR_DALPHA
+        out[7, i] = _dalpha_dT(phase, t, p, rho, alpha) if caloric else np.nan
         if i + 1 < n:  # first-order prediction of the next density (states come sorted by T)
             dT, dP = T[i + 1] - t, P_Pa[i + 1] - p
             predicted = rho * (1.0 - alpha * dT + out[6, i] * dP)
