@@ -1,0 +1,23 @@
+"""Published equations used as check values by several test modules (coefficients cited here)."""
+
+import numpy as np
+
+#: Molar mass of water [kg/mol] (IAPWS-95 value, 18.015268 g/mol).
+M_WATER_KG = 0.018015268
+T_CRIT_K = 647.096
+
+# IAPWS G7-04 (Fernandez-Prini, Alvarez & Harvey 2003, J. Phys. Chem. Ref. Data 32, 903), Table 2
+# coefficients A, B, C (from memory) of ln(kH/p1*) = A/Tr + B tau^0.355/Tr + C Tr^-0.41 exp(tau),
+# kH = lim f2/x2 of the gas in liquid water at the saturation pressure p1* of water. G7-04 fits
+# its data to about 0.02-0.05 in log10.
+G7_04 = {"H2": (-4.73284, 6.08954, 6.06066), "N2": (-9.67578, 4.72162, 11.70585),
+         "O2": (-9.44833, 4.43822, 11.42005), "CO2": (-8.55445, 4.01195, 9.52345),
+         "H2S": (-4.51499, 5.23538, 4.42126), "CH4": (-10.44708, 4.66491, 12.12986)}
+
+
+def g7_04_henry_constant_bar(gas, T_K, psat_bar):
+    """kH [bar per mole fraction] of IAPWS G7-04 at T_K, with the saturation pressure psat_bar."""
+    A, B, C = G7_04[gas]
+    Tr, tau = T_K / T_CRIT_K, 1 - T_K / T_CRIT_K
+    ln_kh_MPa = np.log(psat_bar / 10) + A / Tr + B * tau**0.355 / Tr + C * Tr**-0.41 * np.exp(tau)
+    return np.exp(ln_kh_MPa) * 10
