@@ -18,6 +18,8 @@ __all__ = [
     "to_bar",
     "to_unit",
     "as_float_array",
+    "conversion_factor",
+    "column_label",
 ]
 
 ureg = pint.UnitRegistry(autoconvert_offset_to_baseunit=True)
@@ -81,3 +83,18 @@ def to_bar(value, unit="bar", field="P"):
     if np.any(P <= 0):
         raise InputError(f"{field}: pressures must be positive, got {P.min()} bar")
     return P
+
+
+def conversion_factor(unit, reference, field):
+    """Multiplier taking a value in ``reference`` to ``unit`` (unit strings of one dimension)."""
+    try:
+        return float(Q_(1.0, reference).to(unit).magnitude)
+    except (pint.UndefinedUnitError, pint.DimensionalityError, AttributeError, ValueError, TypeError):
+        raise InputError(f"{field}: {unit!r} is not a unit of the same kind as {reference}; "
+                         f"write e.g. {reference!r}") from None
+
+
+def column_label(unit):
+    """A unit string as it reads in a column name: 'nW/cm3' -> 'nW_per_cm3'."""
+    text = str(unit).strip().replace("µ", "u").replace("μ", "u").replace("**", "").replace("^", "")
+    return text.replace(" / ", "/").replace("/", "_per_").replace("*", "_").replace(" ", "_")

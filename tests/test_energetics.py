@@ -150,6 +150,64 @@ def test_insitu_cli_contract():
     assert len(frame) == 4
 
 
+SCENARIO = """
+title = "units check"
+[[sites]]
+name = "invented pool"
+[sites.fluid]
+"T [degC]" = 30
+"P [bar]" = 1
+pH = 7.0
+"Na+ [mmol/kg]" = 10
+"Cl- [mmol/kg]" = 10
+"H2(aq) [umol/kg]" = 20
+"O2(aq) [umol/kg]" = 100
+[reactions]
+catalog = ["aerobic hydrogen oxidation"]
+[[supply]]
+kind = "flow-through"
+flux_kg_per_s = 1.0
+volume_m3 = 100.0
+"""
+
+
+def test_power_units_are_selectable(tmp_path):
+    from redoxgibbs.errors import InputError
+    from redoxgibbs.interfaces.assess import run_assessment
+
+    plain, chosen, wrong = (tmp_path / n for n in ("plain.toml", "chosen.toml", "wrong.toml"))
+    plain.write_text(SCENARIO)
+    chosen.write_text(SCENARIO + '[units]\npower_per_volume = "nW/cm3"\npower_per_mass = "uW/kg"\n')
+    wrong.write_text(SCENARIO + '[units]\npower_per_volume = "W/kg"\n')
+    a = run_assessment(plain, quiet=True).results
+    b = run_assessment(chosen, quiet=True).results
+    # SI prefixes: 1 W/m3 = 1e9 nW / 1e6 cm3 = 1000 nW/cm3; 1 W/kg = 1e6 uW/kg
+    assert b["power_nW_per_cm3"].iloc[0] == pytest.approx(1000 * a["power_W_per_m3"].iloc[0], rel=1e-12)
+    assert b["power_uW_per_kg"].iloc[0] == pytest.approx(1e6 * a["power_W_per_kg"].iloc[0], rel=1e-12)
+    assert "power_W_per_m3" not in b.columns
+    with pytest.raises(InputError, match="power_per_volume"):
+        run_assessment(wrong, quiet=True)
+
+
+def test_enumeration_of_the_couples_present_in_samples(tmp_path):
+    from redoxgibbs.energetics.catalog import couples_present
+    from redoxgibbs.speciation.solver import species_in_samples
+
+    frame = _sample_frame()            # H2, O2, SO4, HS-, HCO3-, CH4 (and Na, Cl) measured
+    present = couples_present(species_in_samples(frame))
+    assert set(present) == {"H+/H2", "O2/H2O", "SO4^2-/HS-", "SO4^2-/sulfur", "sulfur/HS-", "HCO3-/CH4"}
+    measured = species_in_samples(frame)
+    for x in enumerate_reactions(present, present):
+        dissolved = [s for s in x.reaction.species if s not in ("H+", "H2O(l)", "sulfur")]
+        assert all(s in measured for s in dissolved), x.name
+    path = tmp_path / "samples.csv"
+    frame.to_csv(path, index=False)
+    out = io.StringIO()
+    with redirect_stdout(out):
+        assert main(["reactions", "--present-in", str(path)]) == 0
+    assert "SO4^2-/HS- -> O2/H2O" in out.getvalue() and "NO3-" not in out.getvalue()
+
+
 def test_assess_demo_writes_everything(tmp_path):
     out = io.StringIO()
     with redirect_stdout(out):

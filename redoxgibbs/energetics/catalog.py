@@ -23,7 +23,7 @@ from ..reactions.reaction import Reaction
 from ..species.database import default_database
 from ..species.equation import split_reaction
 
-__all__ = ["catalog", "catalog_reaction", "redox_couples", "enumerate_reactions",
+__all__ = ["catalog", "catalog_reaction", "redox_couples", "couples_present", "enumerate_reactions",
            "electrons_transferred", "NamedReaction", "resolve_reactions"]
 
 
@@ -122,6 +122,16 @@ def redox_couples(db=None):
     """{couple name: (coefficients of the reduction, electrons)} from redox_couples.csv."""
     db = default_database() if db is None else db
     return {row["couple"]: _half_reaction(row["half_reaction"], db) for _, row in _packaged_table("redox_couples.csv").iterrows()}
+
+
+def couples_present(species, db=None):
+    """Names of the redox couples whose dissolved species all lie in ``species`` (e.g. from
+    :func:`~redoxgibbs.speciation.solver.species_in_samples`). H+, water and solids count as
+    available: fluid analyses do not report the minerals in contact with the fluid."""
+    db = default_database() if db is None else db
+    species = set(species)
+    return [name for name, (coeffs, _) in redox_couples(db).items()
+            if all(s in species for s in coeffs if s not in ("H+", "H2O(l)") and db.record(s).state != "solid")]
 
 
 def _smallest_whole(coeffs):

@@ -6,7 +6,8 @@ Supply models (each states itself in the output):
 - ``areal-flux``: a flux J [mol m-2 yr-1] of the limiting reactant into a layer of thickness h [m]:
   P/V = (-dGr / |nu_limiting|) J / (h * 1 yr)
 - ``rate``: a measured or assumed reaction rate r [mol L-1 s-1]: P/V = -dGr r * 1000
-where e is the energy density (per kg of solution or per litre). Output W/m3 and W/kg of fluid.
+where e is the energy density (per kg of solution or per litre). Computed in W/m3 and W/kg of
+fluid, reported in the units a :class:`PowerUnits` names (e.g. nW/cm3, uW/L, W/kg).
 
 Per-cell requirements (a low-high range, never one number):
 - ``tijhuis1993``: maintenance Gibbs energy m_G = 4.5 exp[(69400/R)(1/298.15 - 1/T)] kJ per
@@ -21,8 +22,9 @@ from dataclasses import dataclass
 import numpy as np
 
 from ..errors import InputError
+from ..units import column_label, conversion_factor
 
-__all__ = ["Supply", "power_per_volume", "CellRequirement", "power_per_cell_W", "SECONDS_PER_YEAR"]
+__all__ = ["Supply", "power_per_volume", "PowerUnits", "CellRequirement", "power_per_cell_W", "SECONDS_PER_YEAR"]
 
 R = 8.31446261815324
 SECONDS_PER_YEAR = 365.25 * 86400
@@ -79,6 +81,33 @@ def power_per_volume(supply, energetics):
             per_mol = np.where(nu > 0, affinity / nu, np.nan)
         return per_mol * supply.areal_flux_mol_per_m2_yr / (supply.thickness_m * SECONDS_PER_YEAR)
     return affinity * supply.rate_mol_per_L_s * 1000.0
+
+
+@dataclass(frozen=True)
+class PowerUnits:
+    """Units in which power is reported: per volume of habitat and per mass of fluid."""
+
+    per_volume: str = "W/m3"
+    per_mass: str = "W/kg"
+
+    def __post_init__(self):
+        self.volume_factor, self.mass_factor   # refuse units of the wrong kind at once
+
+    @property
+    def volume_factor(self):
+        return conversion_factor(self.per_volume, "W/m3", "power_per_volume unit")
+
+    @property
+    def mass_factor(self):
+        return conversion_factor(self.per_mass, "W/kg", "power_per_mass unit")
+
+    @property
+    def volume_column(self):
+        return f"power_{column_label(self.per_volume)}"
+
+    @property
+    def mass_column(self):
+        return f"power_{column_label(self.per_mass)}"
 
 
 @dataclass(frozen=True)

@@ -51,17 +51,18 @@ def run_assessment(scenario_path, quiet=False):
     base.insert(0, "site", np.repeat(scenario.samples["site"].to_numpy(), len(scenario.reactions)))
     frames = []
     low_W, high_W = power_per_cell_W(scenario.cells, result.T_K)
+    units = scenario.power_units
     for supply in scenario.supplies or [None]:
         frame = base.copy()
         if supply is None:
             frame["supply"] = "none given"
-            for col in ("power_W_per_m3", "power_W_per_kg", "cells_per_m3_low", "cells_per_m3_high"):
+            for col in (units.volume_column, units.mass_column, "cells_per_m3_low", "cells_per_m3_high"):
                 frame[col] = np.nan
         else:
-            P = power_per_volume(supply, energetics)
+            P = power_per_volume(supply, energetics)   # W/m3
             frame["supply"] = supply.describe()
-            frame["power_W_per_m3"] = P.ravel()
-            frame["power_W_per_kg"] = (P / (rho[:, None] * 1000.0)).ravel()
+            frame[units.volume_column] = P.ravel() * units.volume_factor
+            frame[units.mass_column] = (P / (rho[:, None] * 1000.0)).ravel() * units.mass_factor
             frame["cells_per_m3_low"] = (P / high_W[:, None]).ravel()
             frame["cells_per_m3_high"] = (P / low_W[:, None]).ravel()
         frame["cell_model"] = scenario.cells.describe()

@@ -6,13 +6,13 @@ import sys
 
 import numpy as np
 
-from ..energetics.catalog import catalog, enumerate_reactions, resolve_reactions
+from ..energetics.catalog import catalog, couples_present, enumerate_reactions, resolve_reactions
 from ..energetics.insitu import DEFAULT_MINIMUM_ENERGY_KJ, insitu_energetics
 from ..errors import RedoxGibbsError
 from ..reactions.reaction import Reaction, reaction_properties
 from ..species.database import default_database
 from ..speciation.samples import read_samples
-from ..speciation.solver import speciate
+from ..speciation.solver import speciate, species_in_samples
 from .report import SCREENING_NOTE
 
 __all__ = ["main"]
@@ -91,7 +91,11 @@ def _insitu(args):
 
 
 def _reactions(args):
-    if args.donor or args.acceptor:
+    if args.present_in:
+        present = couples_present(species_in_samples(args.present_in))
+        print(f"couples whose dissolved species are in {args.present_in}: {', '.join(present)}\n")
+        entries = enumerate_reactions(args.donor or present, args.acceptor or present)
+    elif args.donor or args.acceptor:
         entries = enumerate_reactions(args.donor or None, args.acceptor or None)
     else:
         entries = catalog()
@@ -192,6 +196,9 @@ def _parser():
     rxn = sub.add_parser("reactions", help="list the reaction catalog, or enumerate donor x acceptor pairs")
     rxn.add_argument("--donor", action="append", help="redox couple giving electrons, e.g. H+/H2")
     rxn.add_argument("--acceptor", action="append", help="redox couple taking electrons, e.g. O2/H2O")
+    rxn.add_argument("--present-in", metavar="SAMPLES.csv",
+                     help="enumerate the couples whose dissolved species these samples contain "
+                          "(solids count as available); --donor/--acceptor override either side")
     rxn.set_defaults(run=_reactions)
     ass = sub.add_parser("assess", help="run a scenario file into a folder of results and a report")
     ass.add_argument("scenario", help="scenario TOML (see examples/demo_scenario.toml)")

@@ -50,7 +50,7 @@ def _log_bars(ax, table, reactions, labels, xlabel):
     ax.set_xlabel(xlabel)
 
 
-def _plots(first, out):
+def _plots(first, out, units):
     """The four figures; ``first`` holds one row per sample x reaction (first supply)."""
     svgs = {}
     first = first.assign(label=_label(first))
@@ -87,7 +87,8 @@ def _plots(first, out):
     svgs["heat_map"] = _save(fig, out, "heat_map")
 
     fig, axes = plt.subplots(1, 2, figsize=(11, height))
-    _log_bars(axes[0], _pivot(first, "power_W_per_m3", reactions, labels), reactions, labels, "power [W/m3]")
+    _log_bars(axes[0], _pivot(first, units.volume_column, reactions, labels), reactions, labels,
+              f"power [{units.per_volume}]")
     _log_bars(axes[1], _pivot(first, "cells_per_m3_high", reactions, labels), reactions, labels,
               "cells per m3 (high end)")
     axes[0].set_title("Power delivered by the supply")
@@ -121,12 +122,12 @@ def mixing_figure(frame, path=None):
     return buf.getvalue()
 
 
-def _rankings(first, out):
+def _rankings(first, out, units):
     valid = first[first["exergonic"]]
     by_site = valid.sort_values(["site", "sample", "energy_density_J_per_kg"], ascending=[True, True, False])
     by_site = by_site.assign(rank=by_site.groupby(["site", "sample"]).cumcount() + 1)
     cols = ["site", "sample", "rank", "reaction", "dGr_kJ_per_mol", "dGr_kJ_per_mol_e",
-            "energy_density_J_per_kg", "power_W_per_m3"]
+            "energy_density_J_per_kg", units.volume_column]
     by_site[cols].to_csv(out / "ranking_reactions_per_site.csv", index=False)
     by_rxn = valid.sort_values(["reaction", "energy_density_J_per_kg"], ascending=[True, False])
     by_rxn = by_rxn.assign(rank=by_rxn.groupby("reaction").cumcount() + 1)
@@ -160,8 +161,9 @@ def write_outputs(assessment, out_dir):
     results.to_csv(out / "results.csv", index=False)
     first_supply = results["supply"].iloc[0]
     first = results[results["supply"] == first_supply]
-    ranking = _rankings(first, out)
-    svgs = _plots(first, out)
+    units = assessment.scenario.power_units
+    ranking = _rankings(first, out, units)
+    svgs = _plots(first, out, units)
     if assessment.mixing is not None:
         assessment.mixing.to_csv(out / "mixing.csv", index=False)
         svgs["mixing_path"] = mixing_figure(assessment.mixing, out / "mixing_path.png")

@@ -5,8 +5,11 @@ Schema (annotated example: examples/demo_scenario.toml):
 - ``[[sites]]``: ``name`` and either ``samples`` (a CSV path, relative to the scenario file) or an
   inline ``[sites.fluid]`` table with the same columns as a sample CSV (one sample)
 - ``[reactions]``: ``catalog`` (a list of names, or "all"), ``custom`` (reaction strings),
-  ``[reactions.enumerate]`` with ``donors`` and ``acceptors`` (redox-couple names, or "all")
+  ``[reactions.enumerate]`` with ``donors`` and ``acceptors`` (redox-couple names, "all", or
+  "present": the couples whose dissolved species the sites' samples contain)
 - ``[[supply]]``: ``kind`` = flow-through | turnover | areal-flux | rate and its parameters
+- ``[units]`` (optional): ``power_per_volume`` (default "W/m3"; e.g. "nW/cm3", "uW/L") and
+  ``power_per_mass`` (default "W/kg"), the units of the power columns, named in their headers
 - ``[cells]``: ``model`` = tijhuis1993 (with ``cell_carbon_g`` = [low, high]) or basal
   (with ``basal_W`` = [low, high])
 - ``[mixing]`` (optional): ``hydrothermal`` and ``seawater`` (sample names), ``temperatures_C`` or
@@ -27,10 +30,11 @@ from pathlib import Path
 
 import pandas as pd
 
-from ..energetics.catalog import catalog, enumerate_reactions, resolve_reactions
+from ..energetics.catalog import catalog, couples_present, enumerate_reactions, resolve_reactions
 from ..energetics.insitu import DEFAULT_MINIMUM_ENERGY_KJ
-from ..energetics.power import CellRequirement, Supply
+from ..energetics.power import CellRequirement, PowerUnits, Supply
 from ..errors import InputError
+from ..speciation.solver import species_in_samples
 
 if sys.version_info >= (3, 11):
     import tomllib
@@ -51,6 +55,7 @@ class Scenario:
     activity_model: str
     supplies: list = field(default_factory=list)
     cells: CellRequirement = field(default_factory=CellRequirement)
+    power_units: PowerUnits = field(default_factory=PowerUnits)
     minimum_energy_kJ: float = DEFAULT_MINIMUM_ENERGY_KJ
     source: Path = None
     mixing: dict = None
@@ -74,7 +79,7 @@ def _site_frame(site, folder):
     return frame
 
 
-def _reactions(spec):
+def _reactions(spec, samples):
     out = []
     chosen = spec.get("catalog", [])
     if chosen == "all":
@@ -84,7 +89,13 @@ def _reactions(spec):
     out.extend(resolve_reactions(spec.get("custom", [])))
     enum = spec.get("enumerate")
     if enum:
-        pick = lambda v: None if v in (None, "all") else list(v)
+        present = None
+        if "present" in (enum.get("donors"), enum.get("acceptors")):
+            present = couples_present(species_in_samples(samples.drop(columns=["site"])))
+
+        def pick(value):
+            return present if value == "present" else None if value in (None, "all") else list(value)
+
         out.extend(enumerate_reactions(pick(enum.get("donors")), pick(enum.get("acceptors"))))
     if not out:
         raise InputError("scenario: [reactions] names no reactions (catalog, custom or enumerate)")
@@ -117,6 +128,12 @@ def load_scenario(path):
                             cell_carbon_g=tuple(cells_spec.get("cell_carbon_g", CellRequirement().cell_carbon_g)),
                             basal_W=tuple(cells_spec.get("basal_W", CellRequirement().basal_W)))
     cells.describe()
+    units = data.get("units", {})
+    unknown = set(units) - {"power_per_volume", "power_per_mass"}
+    if unknown:
+        raise InputError(f"scenario: [units] fields {sorted(unknown)} are unknown; known: power_per_volume, power_per_mass")
+    power_units = PowerUnits(per_volume=units.get("power_per_volume", "W/m3"),
+                             per_mass=units.get("power_per_mass", "W/kg"))
     mixing = data.get("mixing")
     if mixing is not None:
         names = set(frame["sample"].astype(str))
@@ -126,8 +143,9 @@ def load_scenario(path):
         if ("temperatures_C" in mixing) == ("fractions" in mixing):
             raise InputError("scenario: [mixing] needs either temperatures_C or fractions")
     return Scenario(title=data.get("title", path.stem), samples=frame,
-                    reactions=_reactions(data.get("reactions", {})),
+                    reactions=_reactions(data.get("reactions", {}), frame),
                     activity_model=data.get("activity_model", "bdot"), supplies=supplies, cells=cells,
+                    power_units=power_units,
                     minimum_energy_kJ=float(data.get("minimum_energy_kJ_per_mol", DEFAULT_MINIMUM_ENERGY_KJ)),
                     source=path, mixing=mixing, raw=data)
 
@@ -175,4 +193,5 @@ def sweep_spec(scenario):
                      activity_model=scenario.activity_model, n=int(section.get("draws", 1000)),
                      chunk_size=int(section.get("chunk_size", 10_000)), seed=int(section.get("seed", 0)),
                      supply=scenario.supplies[0] if scenario.supplies else None, cells=scenario.cells,
+                     power_units=scenario.power_units,
                      water=section.get("water", "exact"), mixing=mixing)

@@ -23,7 +23,7 @@ from ..water.iapws95 import psat_convention_bar, water_state
 from .samples import SampleSet, read_samples
 from .system import build_system
 
-__all__ = ["SpeciationResult", "speciate"]
+__all__ = ["SpeciationResult", "speciate", "species_in_samples"]
 
 LN10 = np.log(10.0)
 ABSENT_LOG_M = -60.0       # log10 molality standing in for an unmeasured component
@@ -198,6 +198,49 @@ def _newton(system, model, logK, A, B, T_K, totals, fixed_log_a, log_aH, charge_
     return m, lg, ionic_strength(m, z), log_aw, x[:, k], iterations
 
 
+def _components(samples, db):
+    """Component masters (measured totals, then gases given as fugacities), the gas masters and
+    the (n, k) totals array (NaN: not measured, or fixed by a gas fugacity)."""
+    masters = list(samples.totals)
+    gas_masters = {}
+    for gas in samples.gas_fugacity_bar:
+        aq = db.resolve(db.record(gas).formula + "(aq)")
+        if aq in masters:
+            raise InputError(f"columns {gas} and {aq}: give either the gas fugacity or the dissolved total")
+        gas_masters[gas] = aq
+        masters.append(aq)
+    if not masters:
+        raise InputError("samples: no composition columns (e.g. 'Na+ [mmol/kg]') were found")
+    n = len(samples)
+    totals = np.column_stack([samples.totals.get(m, np.full(n, np.nan)) if m not in gas_masters.values()
+                              else np.full(n, np.nan) for m in masters])
+    return masters, gas_masters, totals
+
+
+def _presence(system, totals, gas_masters):
+    """Masks (n, n_species): species built only from measured components (``present``), and of
+    those, from components with non-zero totals (``nonzero``); plus the (n, k) masks of
+    unmeasured and zero components. Gas-fixed components count as measured and non-zero."""
+    is_gas = np.isin(np.array(system.masters), list(gas_masters.values()))[None, :]
+    unmeasured = ~np.isfinite(totals) & ~is_gas
+    zero = (totals == 0) & ~is_gas
+    uses = system.nu[None, :, :] != 0
+    present = ~(uses & unmeasured[:, None, :]).any(axis=2)
+    nonzero = present & ~(uses & zero[:, None, :]).any(axis=2)
+    return present, nonzero, unmeasured, zero
+
+
+def species_in_samples(samples, db=None):
+    """Aqueous species with a non-zero amount in at least one sample (no solving needed: a species
+    is there when every component it is built from was measured above zero, or fixed by a gas)."""
+    db = default_database() if db is None else db
+    s = samples if isinstance(samples, SampleSet) else read_samples(samples, db=db)
+    masters, gas_masters, totals = _components(s, db)
+    system = build_system(masters, db)
+    nonzero = _presence(system, totals, gas_masters)[1]
+    return {name for name, there in zip(system.species, nonzero.any(axis=0)) if there}
+
+
 def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, db=None,
              charge_balance_target=None, water=water_state):
     """Speciate a sample table (path, DataFrame or :class:`SampleSet`) at in-situ T and P.
@@ -212,24 +255,13 @@ def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, 
     db = default_database() if db is None else db
     s = samples if isinstance(samples, SampleSet) else read_samples(samples, db=db)
     model = activity_model(activity_model_name)
-    masters = list(s.totals)
-    gas_masters = {}
-    for gas in s.gas_fugacity_bar:
-        aq = db.resolve(db.record(gas).formula + "(aq)")
-        if aq in masters:
-            raise InputError(f"columns {gas} and {aq}: give either the gas fugacity or the dissolved total")
-        gas_masters[gas] = aq
-        masters.append(aq)
-    if not masters:
-        raise InputError("samples: no composition columns (e.g. 'Na+ [mmol/kg]') were found")
+    masters, gas_masters, totals = _components(s, db)
     system = build_system(masters, db)
     missing_pH = np.isnan(s.pH)
     if missing_pH.any() and not pH_from_charge_balance:
         i = int(np.flatnonzero(missing_pH)[0])
         raise InputError(f"row {s.names[i]}, column 'pH': no pH given; give one or ask for pH from charge balance")
     n, k = len(s), len(masters)
-    totals = np.column_stack([s.totals.get(mname, np.full(n, np.nan)) if mname not in gas_masters.values()
-                              else np.full(n, np.nan) for mname in masters])
 
     def stage(T_K, P_bar, log_aH, charge_target, solve_H, water=water):
         logK, logK_min, logK_gas, rho = _log_k(system, db, T_K, P_bar, water, gas_masters)
@@ -257,12 +289,8 @@ def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, 
     (m, lg, I, law, xH, its), logK_min = stage(s.T_K, s.P_bar, np.where(solve_H, np.nan, -s.pH),
                                                charge_target, solve_H)
     iterations += its
-    is_gas = np.isin(np.array(masters), list(gas_masters.values()))[None, :]
-    unmeasured = ~np.isfinite(totals) & ~is_gas
-    zero = (totals == 0) & ~is_gas
-    uses = system.nu[None, :, :] != 0
-    present = ~(uses & unmeasured[:, None, :]).any(axis=2)
-    m = np.where(present & ~(uses & zero[:, None, :]).any(axis=2), m, 0.0)
+    present, nonzero, unmeasured, zero = _presence(system, totals, gas_masters)
+    m = np.where(nonzero, m, 0.0)
     positive = m[:, :k] > 0
     la = np.where(positive, np.log10(np.where(positive, m[:, :k], 1.0)), ABSENT_LOG_M) + lg[:, :k]
     si = logK_min + la @ system.nu_min.T + law[:, None] * system.nu_w_min + xH[:, None] * system.nu_H_min

@@ -23,7 +23,7 @@ import pandas as pd
 
 from ..energetics.catalog import resolve_reactions
 from ..energetics.insitu import insitu_energetics
-from ..energetics.power import CellRequirement, power_per_cell_W, power_per_volume
+from ..energetics.power import CellRequirement, PowerUnits, power_per_cell_W, power_per_volume
 from ..errors import InputError
 from ..species.database import default_database
 from ..speciation.mixing import mixture_samples
@@ -70,6 +70,7 @@ class SweepSpec:
     seed: int = 0
     supply: object = None
     cells: CellRequirement = field(default_factory=CellRequirement)
+    power_units: PowerUnits = field(default_factory=PowerUnits)
     water: str = "exact"               # or "tabulated": a WaterTable over each chunk's range
     mixing: dict = None                # {"hydrothermal": row, "seawater": row, "temperature_rule"}
 
@@ -161,7 +162,7 @@ def run_chunk(spec, index, out_dir):
         out[f"{x.name}|dGr_kJ_per_mol"] = e.dGr[:, r] / 1e3
         out[f"{x.name}|energy_density_J_per_kg"] = e.energy_density_J_per_kg[:, r]
         if spec.supply is not None:
-            out[f"{x.name}|power_W_per_m3"] = power[:, r]
+            out[f"{x.name}|{spec.power_units.volume_column}"] = power[:, r] * spec.power_units.volume_factor
             out[f"{x.name}|cells_per_m3_low"] = power[:, r] / high_W
             out[f"{x.name}|cells_per_m3_high"] = power[:, r] / low_W
     path = Path(out_dir) / f"chunk_{index:05d}.parquet"
