@@ -104,6 +104,17 @@ def test_per_electron_times_electrons_is_per_reaction():
     np.testing.assert_allclose((e.dGr_per_electron * e.electrons)[ok], e.dGr[ok], rtol=1e-12)
 
 
+def test_per_species_values_times_coefficients_are_per_reaction():
+    r = speciate(_sample_frame(), "bdot")
+    e = insitu_energetics(r, catalog())
+    frame = e.to_frame(["H2(aq)"])
+    nu = np.tile([abs(x.reaction.coefficient("H2(aq)")) for x in catalog()], len(r.samples))
+    takes_part = (nu > 0) & np.isfinite(frame["dGr_kJ_per_mol"].to_numpy())
+    np.testing.assert_allclose(frame["dGr_kJ_per_mol_H2(aq)"].to_numpy()[takes_part] * nu[takes_part],
+                               frame["dGr_kJ_per_mol"].to_numpy()[takes_part], rtol=1e-12)
+    assert frame["dGr_kJ_per_mol_H2(aq)"][nu == 0].isna().all()
+
+
 def test_energy_density_is_zero_at_equilibrium():
     # choose H2 so that CO2(aq) + 4 H2(aq) = CH4(aq) + 2 H2O(l) sits at Q = K at 25 C
     r = speciate(_sample_frame().iloc[:1], "ideal")

@@ -83,7 +83,8 @@ class InsituEnergetics:
         with np.errstate(divide="ignore", invalid="ignore"):
             return np.where(self.electrons > 0, self.dGr / self.electrons, np.nan)
 
-    def to_frame(self):
+    def to_frame(self, per_species=()):
+        """One row per sample x reaction; ``per_species`` adds dGr per mole of each named species."""
         n, r = self.dGr.shape
         rep = lambda a: np.repeat(a, r)
         til = lambda a: np.tile(a, n)
@@ -104,6 +105,9 @@ class InsituEnergetics:
             "exergonic": (self.dGr < 0).ravel(),
             "below_minimum_energy": (np.abs(self.dGr) < self.minimum_energy_kJ * 1e3).ravel(),
             "missing_species": self.missing_species.ravel(), "flags": self.flags.ravel()})
+        for species in per_species:
+            frame.insert(frame.columns.get_loc("dGr_kJ_per_mol_e") + 1, f"dGr_kJ_per_mol_{species}",
+                         self.per_species(species).ravel())
         return frame
 
     def per_species(self, species):
@@ -187,7 +191,7 @@ def insitu_energetics(result, reactions, db=None, minimum_energy_kJ=DEFAULT_MINI
             consumed[j] = 0.0
     E, limiting = energy_density_kernel(np.nan_to_num(dGr, nan=0.0, posinf=0.0), amounts, consumed)
     E = np.where(unknown, np.nan, E)
-    limiting_names = np.where(limiting >= 0, np.array(names + [""], dtype=object)[limiting], "")
+    limiting_names = np.where((limiting >= 0) & ~unknown, np.array(names + [""], dtype=object)[limiting], "")
     missing = _joined_labels(missing_mask, names)
     flag_names = list(props.flags)
     flag_any = np.stack([(props.flags[k].astype(float) @ (nu != 0)) > 0 for k in flag_names], axis=1)

@@ -47,7 +47,7 @@ def run_assessment(scenario_path, quiet=False):
                                    gas_fugacity=samples.gas_fugacity_bar,
                                    water_per_kg_solution=W, density_kg_L=rho)
     _progress(4, steps, f"power and cells for {len(scenario.supplies)} supply models", quiet)
-    base = energetics.to_frame()
+    base = energetics.to_frame(scenario.per_species)
     base.insert(0, "site", np.repeat(scenario.samples["site"].to_numpy(), len(scenario.reactions)))
     frames = []
     low_W, high_W = power_per_cell_W(scenario.cells, result.T_K)

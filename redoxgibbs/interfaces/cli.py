@@ -79,11 +79,13 @@ def _insitu(args):
     energetics = insitu_energetics(result, resolve_reactions(args.reaction),
                                    minimum_energy_kJ=args.minimum_energy, gas_fugacity=samples.gas_fugacity_bar,
                                    water_per_kg_solution=W, density_kg_L=rho)
-    frame = energetics.to_frame()
+    per_species = [default_database().resolve(s) for s in args.per_species or []]
+    frame = energetics.to_frame(per_species)
     if args.format == "csv":
         sys.stdout.write(frame.to_csv(index=False, float_format="%.6g"))
     else:
-        cols = ["sample", "reaction", "T_C", "dGr_kJ_per_mol", "dGr_kJ_per_mol_e", "limiting_species",
+        cols = ["sample", "reaction", "T_C", "dGr_kJ_per_mol", "dGr_kJ_per_mol_e",
+                *[f"dGr_kJ_per_mol_{s}" for s in per_species], "limiting_species",
                 "energy_density_J_per_kg", "missing_species"]
         print(frame[cols].to_string(index=False, float_format=lambda v: f"{v:.4g}"))
         print("\nenergy_density_J_per_kg is per kg of water. " + SCREENING_NOTE)
@@ -191,6 +193,8 @@ def _parser():
     ins.add_argument("--pH-from-charge-balance", action="store_true")
     ins.add_argument("--minimum-energy", type=float, default=DEFAULT_MINIMUM_ENERGY_KJ,
                      help="kJ per mol of reaction below which |dGr| is flagged (default %(default)s)")
+    ins.add_argument("--per-species", action="append", metavar="SPECIES",
+                     help="also report dGr per mole of this species, e.g. H2(aq); repeat for several")
     ins.add_argument("--format", choices=("table", "csv"), default="table")
     ins.set_defaults(run=_insitu)
     rxn = sub.add_parser("reactions", help="list the reaction catalog, or enumerate donor x acceptor pairs")

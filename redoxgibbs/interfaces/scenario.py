@@ -6,7 +6,8 @@ Schema (annotated example: examples/demo_scenario.toml):
   inline ``[sites.fluid]`` table with the same columns as a sample CSV (one sample)
 - ``[reactions]``: ``catalog`` (a list of names, or "all"), ``custom`` (reaction strings),
   ``[reactions.enumerate]`` with ``donors`` and ``acceptors`` (redox-couple names, "all", or
-  "present": the couples whose dissolved species the sites' samples contain)
+  "present": the couples whose dissolved species the sites' samples contain), ``per_species``
+  (species names: results also give dGr per mole of each)
 - ``[[supply]]``: ``kind`` = flow-through | turnover | areal-flux | rate and its parameters
 - ``[units]`` (optional): ``power_per_volume`` (default "W/m3"; e.g. "nW/cm3", "uW/L") and
   ``power_per_mass`` (default "W/kg"), the units of the power columns, named in their headers
@@ -34,6 +35,7 @@ from ..energetics.catalog import catalog, couples_present, enumerate_reactions, 
 from ..energetics.insitu import DEFAULT_MINIMUM_ENERGY_KJ
 from ..energetics.power import CellRequirement, PowerUnits, Supply
 from ..errors import InputError
+from ..species.database import default_database
 from ..speciation.solver import species_in_samples
 
 if sys.version_info >= (3, 11):
@@ -56,6 +58,7 @@ class Scenario:
     supplies: list = field(default_factory=list)
     cells: CellRequirement = field(default_factory=CellRequirement)
     power_units: PowerUnits = field(default_factory=PowerUnits)
+    per_species: list = field(default_factory=list)
     minimum_energy_kJ: float = DEFAULT_MINIMUM_ENERGY_KJ
     source: Path = None
     mixing: dict = None
@@ -146,6 +149,7 @@ def load_scenario(path):
                     reactions=_reactions(data.get("reactions", {}), frame),
                     activity_model=data.get("activity_model", "bdot"), supplies=supplies, cells=cells,
                     power_units=power_units,
+                    per_species=[default_database().resolve(x) for x in data.get("reactions", {}).get("per_species", [])],
                     minimum_energy_kJ=float(data.get("minimum_energy_kJ_per_mol", DEFAULT_MINIMUM_ENERGY_KJ)),
                     source=path, mixing=mixing, raw=data)
 
