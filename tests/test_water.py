@@ -30,6 +30,43 @@ def test_iapws95_against_iapws_package(T, P):
     assert w.beta_per_bar == pytest.approx(ref.kappa * 1e-1, rel=1e-6)
 
 
+def test_helmholtz_derivatives_against_r6_95_check_values():
+    # IAPWS R6-95(2018) Table 6 (from memory): T = 500 K, rho = 838.025 kg/m3
+    from redoxgibbs.water import helmholtz
+
+    delta, tau = np.array([838.025 / 322.0]), np.array([647.096 / 500.0])
+    r, i0 = helmholtz.residual(delta, tau), helmholtz.ideal(delta, tau)
+    expected_r = {"phi": -0.342693206e1, "d": -0.364366650, "dd": 0.856063701, "t": -0.581403435e1,
+                  "tt": -0.223440737e1, "dt": -0.112176915e1}
+    expected_0 = {"phi": 0.204797733e1, "d": 0.384236747, "dd": -0.147637878, "t": 0.904611106e1,
+                  "tt": -0.193249185e1}
+    for k, v in expected_r.items():
+        assert getattr(r, k)[0] == pytest.approx(v, rel=1e-8), k
+    for k, v in expected_0.items():
+        assert getattr(i0, k)[0] == pytest.approx(v, rel=1e-8), k
+
+
+def test_properties_against_cantera_independent_implementation():
+    # cantera's liquid-water-IAPWS95 phase (its own coefficients and code) at states drawn over
+    # the range; G, H and S share its reference state, fixed here at one state (300 K, 10 bar)
+    from redoxgibbs.water.iapws95 import _phase
+
+    rng = np.random.default_rng(11)
+    T = np.r_[rng.uniform(274.0, 1273.0, 40), rng.uniform(274.0, 373.0, 40)]
+    P = np.r_[rng.uniform(300.0, 5000.0, 40), rng.uniform(1.1, 400.0, 40)]
+    w = water_state(T, P)
+    phase = _phase()
+    for i in range(T.size):
+        phase.TP = T[i], P[i] * 1e5
+        assert w.density_kg_m3[i] == pytest.approx(phase.density, rel=1e-11)
+        assert w.G_J_mol[i] == pytest.approx(phase.gibbs_mole / 1000, abs=1e-6)
+        assert w.H_J_mol[i] == pytest.approx(phase.enthalpy_mole / 1000, abs=1e-6)
+        assert w.S_J_mol_K[i] == pytest.approx(phase.entropy_mole / 1000, abs=1e-9)
+        assert w.Cp_J_mol_K[i] == pytest.approx(phase.cp_mole / 1000, rel=1e-9)
+        assert w.alpha_per_K[i] == pytest.approx(phase.thermal_expansion_coeff, rel=1e-8)
+        assert w.beta_per_bar[i] == pytest.approx(phase.isothermal_compressibility * 1e5, rel=1e-9)
+
+
 def test_expansivity_derivative_against_finite_difference_of_iapws():
     # d alpha/dT at constant P by central difference of the iapws package's alpha
     T, P = 423.15, 200.0

@@ -1,28 +1,31 @@
-"""Liquid and supercritical water from IAPWS-95, evaluated through cantera (and iapws when cold).
+"""Liquid and supercritical water from IAPWS-95, evaluated for all states at once.
 
-IAPWS-95 is not written here: cantera's ``liquid-water-IAPWS95`` phase supplies the Helmholtz
-function. Setting that phase by (T, density) costs well under a microsecond, while setting it by
-(T, P) runs a general density search (about 100 us); so the density at (T, P) is found here by a
-bracketed Newton iteration on cantera's own pressure, with cantera's (T, P) search as the
-fallback near the critical point. Every distinct (T, P) is evaluated once and the results are
-broadcast back to the caller's shape.
+The Helmholtz function and its derivatives come from ``helmholtz.py`` (numpy, over arrays of
+states). The density at each (T, P) is found by a bracketed Newton iteration on the IAPWS-95
+pressure, run over all states together and started from the saturated-liquid density of the
+auxiliary equation (or from a compressed-liquid guess above T_c). cantera's
+``liquid-water-IAPWS95`` phase, an independent implementation of the same equation, supplies
+three things only: the exact saturation pressure, the reference state of G, H and S (its
+convention: H of formation and third-law S at 298.15 K, 1 bar), and a (T, P) search with clear
+refusals for the rare states where the iteration fails (within about 1 K of the critical point,
+or below saturation). Every distinct (T, P) is evaluated once and broadcast back.
 
-cantera refuses T below the triple point (273.16 K); liquid water there (down to the ice melting
-curve, e.g. -20 degC near 2 kbar) is evaluated with the IAPWS-95 implementation of the ``iapws``
-package, shifted to cantera's reference state.
+IAPWS-95 holds for the metastable and stable liquid down to the ice melting curve (IAPWS
+R14-08), so cold liquid (e.g. -20 degC near 2 kbar) takes the same path.
 
 References: Wagner & Pruss (2002) J. Phys. Chem. Ref. Data 31, 387 (IAPWS-95);
-IAPWS R6-95(2018); IAPWS R14-08(2011) for the melting curve.
+IAPWS R6-95(2018); IAPWS R14-08(2011) for the melting curve; Wagner & Pruss (1993)
+J. Phys. Chem. Ref. Data 22, 783 for the auxiliary saturation equations.
 """
 
 import functools
-import warnings
 from dataclasses import dataclass
 
 import cantera as ct
 import numpy as np
 
 from ..errors import InputError, OutOfValidityError
+from . import helmholtz
 from .melting import T_TRIPLE_K, frozen_phase
 
 __all__ = [
@@ -35,14 +38,16 @@ __all__ = [
     "M_WATER_KG_PER_MOL",
 ]
 
-T_CRITICAL_K = 647.096          # IAPWS-95
+T_CRITICAL_K = helmholtz.T_C    # IAPWS-95
 P_CRITICAL_BAR = 220.64
-RHO_CRITICAL = 322.0            # kg/m3
+RHO_CRITICAL = helmholtz.RHO_C  # kg/m3
 M_WATER_KG_PER_MOL = 0.018015      # cantera's molar mass of H2O (its liquid-water phase); molar
                                     # properties and V = M / rho use this one value throughout
 P_ONE_ATM_BAR = 1.01325
 T_BOILING_1ATM_K = 373.124      # IAPWS-95 normal boiling point (ITS-90)
 _DT_FOR_DALPHA = 0.05           # K, central difference of alpha(T) at constant P
+_MAX_DENSITY_STEPS = 80
+_DENSITY_STEP_TOLERANCE = 1e-11  # relative; the rounding floor of the pressure sum is about 2e-13
 
 _PHASE_YAML = """
 phases:
@@ -91,28 +96,6 @@ class WaterState:
         return self.T_K.shape
 
 
-def _density_newton(phase, T, P_Pa, rho_guess):
-    """Liquid-branch density [kg/m3] at (T, P) by Newton on P(rho), bracketed; None on failure."""
-    lo, hi = 1e-3, 1400.0
-    rho = rho_guess
-    for _ in range(40):
-        phase.TD = T, rho
-        residual = phase.P - P_Pa
-        if abs(residual) <= 1e-13 * P_Pa:
-            return rho
-        if residual > 0:
-            hi = rho
-        else:
-            lo = rho
-        beta = phase.isothermal_compressibility
-        step = residual * rho * beta if beta > 0 else np.inf
-        if abs(step) <= 1e-14 * rho:   # at the rounding floor of cantera's pressure
-            return rho
-        rho_next = rho - step
-        rho = rho_next if lo < rho_next < hi else 0.5 * (lo + hi)
-    return None
-
-
 def _near_critical_message(T, P_Pa):
     return (f"T, P: IAPWS-95 liquid density could not be found at {T - 273.15:.6g} degC, "
             f"{P_Pa / 1e5:.6g} bar (within about 1 K of the critical point, 373.946 degC, "
@@ -149,118 +132,138 @@ def _near_saturation(T, P_Pa):
     return near
 
 
-def _density_at(phase, T, P_Pa, rho_guess, near_saturation):
-    """Density at (T, P) on the liquid (or supercritical) branch, with clear refusals."""
-    rho = _density_newton(phase, T, P_Pa, rho_guess)
-    if rho is not None:
-        stable = phase.isothermal_compressibility > 0
-        if not stable or (T < T_CRITICAL_K and rho < RHO_CRITICAL):
-            rho = None  # an unstable or vapour root: let cantera decide and explain
-        elif near_saturation:
-            _refuse_below_saturation(phase, T, P_Pa)
-    if rho is None:
-        try:
-            phase.TD = T, 1000.0  # a liquid start for cantera's own search
-            phase.TP = T, P_Pa
-        except ct.CanteraError as err:
-            text = str(err)
-            if "saturation" in text:
-                raise OutOfValidityError(
-                    f"P: {P_Pa / 1e5:.6g} bar at T = {T - 273.15:.6g} degC is below the saturation "
-                    "pressure, where water is vapour; give a higher pressure or 'psat'") from None
-            raise OutOfValidityError(_near_critical_message(T, P_Pa)) from None
-        rho = phase.density
-    phase.TD = T, rho
+def _saturated_liquid_density_auxiliary(T):
+    """Saturated-liquid density [kg/m3] of Wagner & Pruss (1993), eq. (2.6): a starting guess."""
+    tau = 1.0 - np.minimum(T, T_CRITICAL_K) / T_CRITICAL_K
+    b = (1.99274064, 1.09965342, -0.510839303, -1.75493479, -45.5170352, -6.74694450e5)
+    e = (1 / 3, 2 / 3, 5 / 3, 16 / 3, 43 / 3, 110 / 3)
+    return RHO_CRITICAL * (1.0 + sum(bi * tau**ei for bi, ei in zip(b, e)))
+
+
+def _pressure_and_slope(rho, T):
+    """IAPWS-95 pressure [Pa] and (dp/drho)_T at arrays of density and temperature."""
+    delta = rho / RHO_CRITICAL
+    r = helmholtz.residual(delta, T_CRITICAL_K / T, second_tau=False)
+    RT = helmholtz.R_SPECIFIC_J_KG_K * T
+    return rho * RT * (1.0 + delta * r.d), RT * (1.0 + 2.0 * delta * r.d + delta**2 * r.dd)
+
+
+def _density_newton(T, P_Pa, rho):
+    """Density at (T, P) from a start ``rho`` by bracketed Newton steps, all states together.
+
+    Returns the densities and a mask of the states that did not converge onto a mechanically
+    stable root (left to cantera's search and its refusals).
+    """
+    rho = rho.copy()
+    lo, hi = np.full(T.shape, 1e-3), np.full(T.shape, 1400.0)
+    active = np.arange(T.size)
+    for _ in range(_MAX_DENSITY_STEPS):
+        p, slope = _pressure_and_slope(rho[active], T[active])
+        residual = p - P_Pa[active]
+        hi[active] = np.where(residual > 0, rho[active], hi[active])
+        lo[active] = np.where(residual <= 0, rho[active], lo[active])
+        with np.errstate(divide="ignore", invalid="ignore"):
+            step = np.where(slope > 0, residual / slope, np.inf)
+        proposal = rho[active] - step
+        done = np.abs(step) <= _DENSITY_STEP_TOLERANCE * rho[active]
+        inside = done | ((proposal > lo[active]) & (proposal < hi[active]))
+        rho[active] = np.where(inside, proposal, 0.5 * (lo[active] + hi[active]))
+        active = active[~done]
+        if active.size == 0:
+            break
+    failed = np.zeros(T.shape, dtype=bool)
+    failed[active] = True
+    slope = _pressure_and_slope(rho, T)[1]
+    failed |= (slope <= 0) | ((T < T_CRITICAL_K) & (rho < RHO_CRITICAL))   # unstable or vapour root
+    return rho, failed
+
+
+def _density_by_cantera(T, P_Pa):
+    """cantera's own (T, P) search for one state, with refusals that name the problem."""
+    phase = _phase()
+    try:
+        phase.TD = T, 1000.0  # a liquid start for cantera's search
+        phase.TP = T, P_Pa
+    except ct.CanteraError as err:
+        if "saturation" in str(err):
+            raise OutOfValidityError(
+                f"P: {P_Pa / 1e5:.6g} bar at T = {T - 273.15:.6g} degC is below the saturation "
+                "pressure, where water is vapour; give a higher pressure or 'psat'") from None
+        raise OutOfValidityError(_near_critical_message(T, P_Pa)) from None
+    if T < T_CRITICAL_K and phase.density < RHO_CRITICAL:
+        raise OutOfValidityError(
+            f"P: {P_Pa / 1e5:.6g} bar at T = {T - 273.15:.6g} degC is below the saturation "
+            "pressure, where water is vapour; give a higher pressure or 'psat'")
+    return phase.density
+
+
+def _densities(T, P_Pa):
+    """Liquid (or supercritical) densities at 1-D arrays of distinct states, refusing vapour."""
+    start = np.where(T < T_CRITICAL_K, _saturated_liquid_density_auxiliary(T), 1100.0)
+    rho, failed = _density_newton(T, P_Pa, start)
+    for i in np.flatnonzero(failed):   # rare: near the critical point, or below saturation
+        rho[i] = _density_by_cantera(T[i], P_Pa[i])
+    near = _near_saturation(T, P_Pa) & (T >= T_TRIPLE_K)
+    if near.any():
+        phase = _phase()
+        for i in np.flatnonzero(near):
+            phase.TD = T[i], rho[i]
+            _refuse_below_saturation(phase, T[i], P_Pa[i])
     return rho
 
 
-def _alpha_at(phase, T, P_Pa, rho_near):
-    """Expansivity at (T, P), starting from a density close to the answer (one Newton step)."""
-    phase.TD = T, rho_near
-    rho = rho_near - (phase.P - P_Pa) * rho_near * phase.isothermal_compressibility
-    phase.TD = T, rho
-    return phase.thermal_expansion_coeff
+def _properties(T, rho, caloric):
+    """Rows rho, G, H, S, Cp, alpha, beta [1/Pa] per kg (J/kg...) at arrays of T and density."""
+    delta, tau = rho / RHO_CRITICAL, T_CRITICAL_K / T
+    r, i0 = helmholtz.residual(delta, tau), helmholtz.ideal(delta, tau)
+    R = helmholtz.R_SPECIFIC_J_KG_K
+    X = 1.0 + delta * r.d - delta * tau * r.dt
+    Y = 1.0 + 2.0 * delta * r.d + delta**2 * r.dd
+    beta = 1.0 / (rho * R * T * Y)
+    alpha = beta * rho * R * X
+    g = R * T * (1.0 + i0.phi + r.phi + delta * r.d)
+    h = R * T * (1.0 + tau * (i0.t + r.t) + delta * r.d)
+    S = R * (tau * (i0.t + r.t) - i0.phi - r.phi)
+    cp = R * (-tau**2 * (i0.tt + r.tt) + X**2 / Y)
+    if not caloric:
+        h = S = cp = np.full(T.shape, np.nan)
+    return g, h, S, cp, alpha, beta
 
 
-def _dalpha_dT(phase, T, P_Pa, rho, alpha):
-    """(d alpha / dT) at constant P by a central difference of +-0.05 K (one-sided at 273.16 K)."""
-    dT = min(_DT_FOR_DALPHA, T - T_TRIPLE_K)
-    if dT > 1e-3:
-        a_hi = _alpha_at(phase, T + dT, P_Pa, rho * (1 - alpha * dT))
-        a_lo = _alpha_at(phase, T - dT, P_Pa, rho * (1 + alpha * dT))
-        return (a_hi - a_lo) / (2 * dT)
+def _alpha_at(T, P_Pa, rho_near):
+    """Expansivity at (T, P) from a density close to the answer (one Newton step)."""
+    p, slope = _pressure_and_slope(rho_near, T)
+    return _properties(T, rho_near - (p - P_Pa) / slope, caloric=False)[4]
+
+
+def _dalpha_dT(T, P_Pa, rho, alpha):
+    """(d alpha / dT) at constant P by a central difference of +-0.05 K."""
     dT = _DT_FOR_DALPHA
-    return (_alpha_at(phase, T + dT, P_Pa, rho * (1 - alpha * dT)) - alpha) / dT
-
-
-def _evaluate_cantera(T, P_Pa, caloric=True):
-    """Evaluate 1-D arrays of distinct warm states (T >= 273.16 K) through cantera."""
-    phase = _phase()
-    n = T.size
-    out = np.empty((8, n))
-    rho_guess = 1300.0
-    near = _near_saturation(T, P_Pa)
-    for i in range(n):
-        t, p = T[i], P_Pa[i]
-        rho = _density_at(phase, t, p, rho_guess, near[i])  # leaves the phase at (t, rho)
-        alpha = phase.thermal_expansion_coeff
-        out[0, i] = rho
-        out[1, i] = phase.gibbs_mole
-        out[5, i] = alpha
-        out[6, i] = phase.isothermal_compressibility
-        if caloric:  # H, S and Cp go with the heat-capacity level of detail
-            out[2, i] = phase.enthalpy_mole
-            out[3, i] = phase.entropy_mole
-            out[4, i] = phase.cp_mole
-        else:
-            out[2:5, i] = np.nan
-        out[7, i] = _dalpha_dT(phase, t, p, rho, alpha) if caloric else np.nan
-        if i + 1 < n:  # first-order prediction of the next density (states come sorted by T)
-            dT, dP = T[i + 1] - t, P_Pa[i + 1] - p
-            predicted = rho * (1.0 - alpha * dT + out[6, i] * dP)
-            rho_guess = min(max(predicted, 1e-2), 1399.0)
-    out[1:4] /= 1000.0  # J/kmol -> J/mol
-    out[4] /= 1000.0
-    return out
+    a_hi = _alpha_at(T + dT, P_Pa, rho * (1 - alpha * dT))
+    a_lo = _alpha_at(T - dT, P_Pa, rho * (1 + alpha * dT))
+    return (a_hi - a_lo) / (2 * dT)
 
 
 @functools.lru_cache(maxsize=1)
-def _iapws_reference_offsets():
-    """Shift of the iapws package's IAPWS-95 (u = s = 0 at the triple point) to cantera's."""
-    import iapws
-
+def _reference_offsets():
+    """Shift [J/mol] of IAPWS-95's H and S (u = s = 0 for the liquid at the triple point) to
+    cantera's convention, read at one state."""
     T, P_Pa = 300.0, 1e6
     phase = _phase()
     phase.TP = T, P_Pa
-    ref = iapws.IAPWS95(T=T, P=P_Pa / 1e6)
-    M = M_WATER_KG_PER_MOL * 1e3  # g/mol = kJ/kg -> J/mol
-    dH = phase.enthalpy_mole / 1000.0 - ref.h * M
-    dS = phase.entropy_mole / 1000.0 - ref.s * M
-    return dH, dS
+    _, h, S, _, _, _ = _properties(np.array([T]), np.array([phase.density]), caloric=True)
+    return (phase.enthalpy_mole / 1000.0 - h[0] * M_WATER_KG_PER_MOL,
+            phase.entropy_mole / 1000.0 - S[0] * M_WATER_KG_PER_MOL)
 
 
-def _iapws_point(T, P_Pa):
-    import iapws
-
-    with warnings.catch_warnings():
-        warnings.simplefilter("ignore")
-        return iapws.IAPWS95(T=T, P=P_Pa / 1e6)
-
-
-def _evaluate_cold(T, P_Pa, caloric=True):
-    """Evaluate distinct cold liquid states (T < 273.16 K) with the iapws package (IAPWS-95)."""
-    dH, dS = _iapws_reference_offsets()
-    M = M_WATER_KG_PER_MOL * 1e3
-    out = np.empty((8, T.size))
-    for i, (t, p) in enumerate(zip(T, P_Pa)):
-        s = _iapws_point(t, p)
-        dT = 0.05
-        dalpha = np.nan
-        if caloric:
-            dalpha = (_iapws_point(t + dT, p).alfav - _iapws_point(t - dT, p).alfav) / (2 * dT)
-        h, S = s.h * M + dH, s.s * M + dS
-        out[:, i] = (s.rho, h - t * S, h, S, s.cp * M, s.alfav, s.kappa * 1e-6, dalpha)
-    return out
+def _evaluate(T, P_Pa, caloric=True):
+    """Rows rho, G, H, S, Cp, alpha, beta, d(alpha)/dT at 1-D arrays of distinct states (molar)."""
+    rho = _densities(T, P_Pa)
+    g, h, S, cp, alpha, beta = _properties(T, rho, caloric)
+    dH, dS = _reference_offsets()
+    M = M_WATER_KG_PER_MOL
+    dalpha = _dalpha_dT(T, P_Pa, rho, alpha) if caloric else np.full(T.shape, np.nan)
+    return np.stack([rho, g * M + dH - T * dS, h * M + dH, S * M + dS, cp * M, alpha, beta, dalpha])
 
 
 def _refuse_frozen(T, P_Pa):
@@ -290,13 +293,7 @@ def water_state(T_K, P_bar, caloric=True):
     unique, inverse = np.unique(pairs, axis=0, return_inverse=True)
     Tu, Pu_Pa = unique[:, 0], unique[:, 1] * 1e5
     _refuse_frozen(Tu, Pu_Pa)
-    values = np.empty((8, Tu.size))
-    warm = Tu >= T_TRIPLE_K
-    if warm.any():
-        values[:, warm] = _evaluate_cantera(Tu[warm], Pu_Pa[warm], caloric)
-    if (~warm).any():
-        values[:, ~warm] = _evaluate_cold(Tu[~warm], Pu_Pa[~warm], caloric)
-    full = values[:, inverse.ravel()].reshape((8,) + T.shape)
+    full = _evaluate(Tu, Pu_Pa, caloric)[:, inverse.ravel()].reshape((8,) + T.shape)
     return WaterState(
         T_K=T.copy(), P_bar=P.copy(), density_kg_m3=full[0], G_J_mol=full[1], H_J_mol=full[2],
         S_J_mol_K=full[3], Cp_J_mol_K=full[4], alpha_per_K=full[5],

@@ -1,6 +1,6 @@
 """Tabulated-and-interpolated water properties for sweeps with many distinct (T, P) states.
 
-The exact path costs about 20-40 us per distinct state; a sweep whose temperature or pressure
+The exact path costs about 15-25 us per distinct state; a sweep whose temperature or pressure
 varies per draw pays that per draw. A :class:`WaterTable` evaluates the exact path once on a
 rectangular (T, P) grid and interpolates every field with bicubic splines
 (scipy.interpolate.RectBivariateSpline). Error bound against the exact path with the default
