@@ -43,6 +43,27 @@ def test_monte_carlo_matches_the_closed_form(tmp_path):
     assert rho == pytest.approx(-1.0, abs=1e-9)   # dGr falls monotonically with H2
 
 
+def test_rank_correlations_against_scipy(tmp_path):
+    # scipy.stats.spearmanr of the stored draws; two inputs, and energy densities with ties
+    # (zeros where a reaction is not exergonic) and NaN rows (dropped, as in summarize)
+    from scipy.stats import spearmanr
+
+    spec = SweepSpec(base=BASE, inputs={"H2(aq) [umol/kg]": Distribution("lognormal", 1e-4, 3.0),
+                                        "T [degC]": Distribution("uniform", 5.0, 60.0)},
+                     reactions=("aerobic hydrogen oxidation", "sulfate reduction with H2"),
+                     activity_model="ideal", n=3000, chunk_size=1000, seed=3)
+    _, corr = run_sweep(spec, tmp_path, quiet=True)
+    frame = load_results(tmp_path)
+    for _, row in corr.iterrows():
+        y = frame[f"{row.reaction}|{row.quantity}"].to_numpy()
+        x = frame[f"input:{row.input}"].to_numpy()
+        ok = np.isfinite(y)
+        if ok.sum() > 2 and np.ptp(y[ok]) > 0:
+            assert row.spearman_rho == pytest.approx(spearmanr(x[ok], y[ok]).statistic, abs=1e-10)
+        else:
+            assert np.isnan(row.spearman_rho)
+
+
 def test_seeded_and_reproducible(tmp_path):
     a = _run(_spec(n=1500, chunk=500), tmp_path / "a")
     b = _run(_spec(n=1500, chunk=500), tmp_path / "b")

@@ -224,18 +224,26 @@ def _chunk_paths(out_dir):
 
 def load_results(out_dir, columns=None):
     """The per-draw table of a sweep folder (all chunks, in draw order)."""
+    # chunk files sort by index and hold their draws in order, so concatenation is in draw order
     frame = pd.concat([pd.read_parquet(p, columns=columns) for p in _chunk_paths(out_dir)], ignore_index=True)
-    return frame.sort_values("draw").reset_index(drop=True) if "draw" in frame else frame
+    if "draw" in frame and not frame["draw"].is_monotonic_increasing:
+        frame = frame.sort_values("draw").reset_index(drop=True)
+    return frame
 
 
-def _ranks(x):
-    return pd.Series(x).rank().to_numpy()
+def _standard_ranks(x):
+    """Ranks of x (ties averaged), centred and scaled to unit variance; NaN if x is constant."""
+    r = pd.Series(x).rank().to_numpy(dtype=float, copy=True)
+    r -= r.mean()
+    sd = r.std()
+    return r / sd if sd > 0 else np.full(r.shape, np.nan)
 
 
-def summarize(out_dir, percentiles=(5, 50, 95)):
+def summarize(out_dir, percentiles=(5, 50, 95), batch=8):
     """Percentiles of every output and Spearman rank correlations of outputs with the inputs.
 
-    Reads one output column at a time, so memory stays at the inputs plus one column.
+    Reads ``batch`` output columns at a time, so memory stays at the inputs plus a few columns.
+    Spearman's rho is the mean product of standardized ranks (Pearson's r of the ranks).
     """
     import pyarrow.parquet as pq
 
@@ -243,24 +251,27 @@ def summarize(out_dir, percentiles=(5, 50, 95)):
     inputs = [c for c in names if c.startswith("input:")]
     outputs = [c for c in names if "|" in c]
     draws = load_results(out_dir, ["draw"] + inputs)
-    input_ranks = {i: _ranks(draws[i].to_numpy(float)) for i in inputs}
+    x = {i: draws[i].to_numpy(float) for i in inputs}
+    x_ranks = np.array([_standard_ranks(v) for v in x.values()]).reshape(len(inputs), len(draws))
     rows, corr = [], []
-    for c in outputs:
-        reaction, quantity = c.split("|")
-        values = load_results(out_dir, ["draw", c])[c].to_numpy(float)
-        finite = np.isfinite(values)
-        row = {"reaction": reaction, "quantity": quantity, "n": int(finite.sum())}
-        for p in percentiles:
-            row[f"p{p}"] = np.percentile(values[finite], p) if finite.any() else np.nan
-        rows.append(row)
-        ranked = _ranks(values[finite]) if finite.any() else None
-        for i in inputs:
-            rho = np.nan
-            if finite.sum() > 2:
-                x_rank = input_ranks[i] if finite.all() else _ranks(draws[i].to_numpy(float)[finite])
-                with np.errstate(invalid="ignore", divide="ignore"):   # constant outputs give NaN
-                    rho = np.corrcoef(x_rank, ranked)[0, 1]
-            corr.append({"reaction": reaction, "quantity": quantity, "input": i[6:], "spearman_rho": rho})
+    for start in range(0, len(outputs), batch):
+        block = load_results(out_dir, outputs[start:start + batch])
+        for c in block.columns:
+            reaction, quantity = c.split("|")
+            values = block[c].to_numpy(float)
+            finite = np.isfinite(values)
+            n = int(finite.sum())
+            row = {"reaction": reaction, "quantity": quantity, "n": n}
+            q = np.percentile(values[finite], percentiles) if n else np.full(len(percentiles), np.nan)
+            row.update({f"p{p}": v for p, v in zip(percentiles, q)})
+            rows.append(row)
+            rho = np.full(len(inputs), np.nan)
+            if n > 2:
+                y = _standard_ranks(values[finite])
+                xr = x_ranks if n == values.size else np.array([_standard_ranks(x[i][finite]) for i in inputs])
+                rho = xr.reshape(len(inputs), n) @ y / n
+            corr += [{"reaction": reaction, "quantity": quantity, "input": i[6:], "spearman_rho": r}
+                     for i, r in zip(inputs, rho)]
     return pd.DataFrame(rows), pd.DataFrame(corr)
 
 
