@@ -100,8 +100,12 @@ def _log_k(system, db, T_K, P_bar, water, gas_masters):
     return -dG_sp / RT, -dG_min / RT, -dG_gas / RT, props.water_density_kg_m3
 
 
-def _newton(system, model, logK, A, B, T_K, totals, fixed_log_a, log_aH, charge_target, solve_H):
-    """Batched Newton solve; returns molality, log10 gamma, I, log a_w, log a_H, iterations.
+def _newton(system, model, logK, A, B, T_K, totals, fixed_log_a, log_aH, charge_target, solve_H,
+            start=None):
+    """Batched Newton solve; returns molality, log10 gamma, I, log a_w, the unknowns, iterations.
+
+    ``start``: (unknowns, log10 gamma, log a_w) of an earlier solve of the same samples (another
+    T, P), from which the iteration starts instead of from the totals.
 
     Unknowns x = (log10 m of the k masters, log10 a_H+). Rows: mass balance per master and charge
     balance. With rows = [nu | z] and columns = [nu | nu_H] (species x (k+1)), the Jacobian is
@@ -116,18 +120,24 @@ def _newton(system, model, logK, A, B, T_K, totals, fixed_log_a, log_aH, charge_
     W = (rows[:, :, None] * cols[:, None, :]).reshape(len(system.species), (k + 1) ** 2) * LN10
     measured = np.isfinite(totals) & (totals > 0)   # zero or blank: nothing to balance
     fixed = np.isfinite(fixed_log_a)
-    x = np.where(measured, np.log10(np.where(measured, totals, 1.0)), ABSENT_LOG_M)
-    x = np.where(fixed, fixed_log_a, x)
-    x = np.column_stack([x, np.where(np.isfinite(log_aH), log_aH, -7.0)])
+    if start is None:
+        x = np.where(measured, np.log10(np.where(measured, totals, 1.0)), ABSENT_LOG_M)
+        x = np.column_stack([x, np.full(n, -7.0)])
+    else:
+        x = start[0].copy()
+    x[:, :k] = np.where(fixed, fixed_log_a, x[:, :k])
+    x[:, k] = np.where(np.isfinite(log_aH), log_aH, x[:, k])
     target = np.column_stack([np.nan_to_num(totals), charge_target])
     frozen = np.concatenate([~measured | fixed, ~solve_H[:, None]], axis=1)
     is_fixed = np.column_stack([fixed, np.zeros(n, bool)])
     fixed_full = np.column_stack([np.where(fixed, fixed_log_a, 0.0), np.zeros(n)])
     free_masters = np.column_stack([~fixed, np.zeros(n, bool)]).astype(float)  # log a = x + lg
-    # start from the activity coefficients of the masters' own ionic strength
-    I = ionic_strength(np.nan_to_num(totals), z[:k])
-    lg = model.log10_gamma(system.species, z, I, T_K, A, B)
-    log_aw = log10_water_activity(np.nan_to_num(totals).sum(axis=1))
+    if start is None:   # activity coefficients of the masters' own ionic strength
+        I = ionic_strength(np.nan_to_num(totals), z[:k])
+        lg = model.log10_gamma(system.species, z, I, T_K, A, B)
+        log_aw = log10_water_activity(np.nan_to_num(totals).sum(axis=1))
+    else:
+        lg, log_aw = start[1].copy(), start[2].copy()
     m = np.zeros((n, len(system.species)))
     iterations = np.zeros(n, dtype=int)
     active = np.arange(n)
@@ -149,7 +159,7 @@ def _newton(system, model, logK, A, B, T_K, totals, fixed_log_a, log_aH, charge_
     # a few continued-fraction steps first (one molality evaluation each, no Jacobian): each
     # master is scaled by total / (what the current guess puts in its mass balance)
     balanced = measured & ~fixed
-    for _ in range(PRE_STEPS):
+    for _ in range(PRE_STEPS if start is None else 0):
         ma = molalities(slice(None), lg, log_aw)
         held = ma @ system.nu
         with np.errstate(divide="ignore", invalid="ignore"):
@@ -195,7 +205,7 @@ def _newton(system, model, logK, A, B, T_K, totals, fixed_log_a, log_aH, charge_
     else:
         raise InputError(f"speciation did not converge in {MAX_ITERATIONS} iterations for sample rows "
                          f"{active[:5].tolist()}; check the totals and pH of these samples")
-    return m, lg, ionic_strength(m, z), log_aw, x[:, k], iterations
+    return m, lg, ionic_strength(m, z), log_aw, x, iterations
 
 
 def _components(samples, db):
@@ -263,7 +273,7 @@ def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, 
         raise InputError(f"row {s.names[i]}, column 'pH': no pH given; give one or ask for pH from charge balance")
     n, k = len(s), len(masters)
 
-    def stage(T_K, P_bar, log_aH, charge_target, solve_H, water=water):
+    def stage(T_K, P_bar, log_aH, charge_target, solve_H, water=water, start=None):
         logK, logK_min, logK_gas, rho = _log_k(system, db, T_K, P_bar, water, gas_masters)
         fixed = np.full((n, k), np.nan)
         for j, (gas, aq) in enumerate(gas_masters.items()):
@@ -271,24 +281,27 @@ def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, 
                 fixed[:, masters.index(aq)] = np.log10(s.gas_fugacity_bar[gas]) + logK_gas[:, j]
         eps = dielectric_johnson_norton_1991(T_K, rho)[0]
         A, B = debye_hueckel_A(T_K, rho, eps), debye_hueckel_B(T_K, rho, eps)
-        out = _newton(system, model, logK, A, B, T_K, totals, fixed, log_aH, charge_target, solve_H)
+        out = _newton(system, model, logK, A, B, T_K, totals, fixed, log_aH, charge_target, solve_H, start)
         return out, logK_min
 
     # stage 1: where pH was measured at another temperature, speciate there to fix the charge balance
     charge_target = np.zeros(n) if charge_balance_target is None else np.asarray(charge_balance_target, float)
     iterations = np.zeros(n, dtype=int)
     shifted = ~missing_pH & (np.abs(s.pH_T_K - s.T_K) > 1e-9)
+    start = None
     if shifted.any():
         P_lab = psat_convention_bar(s.pH_T_K)
         # laboratory states are few and distinct: always the exact water path
-        (m, lg, I, law, xH, its), _ = stage(s.pH_T_K, P_lab, -s.pH, np.zeros(n), np.zeros(n, bool),
-                                            water=water_state)
+        (m, lg, I, law, x, its), _ = stage(s.pH_T_K, P_lab, -s.pH, np.zeros(n), np.zeros(n, bool),
+                                           water=water_state)
         charge_target = np.where(shifted, m @ system.charge, charge_target)
         iterations += np.where(shifted, its, 0)
+        start = (x, lg, law)   # the in-situ solve starts from the laboratory one
     solve_H = missing_pH | shifted
-    (m, lg, I, law, xH, its), logK_min = stage(s.T_K, s.P_bar, np.where(solve_H, np.nan, -s.pH),
-                                               charge_target, solve_H)
+    (m, lg, I, law, x, its), logK_min = stage(s.T_K, s.P_bar, np.where(solve_H, np.nan, -s.pH),
+                                              charge_target, solve_H, start=start)
     iterations += its
+    xH = x[:, k]
     present, nonzero, unmeasured, zero = _presence(system, totals, gas_masters)
     m = np.where(nonzero, m, 0.0)
     positive = m[:, :k] > 0
