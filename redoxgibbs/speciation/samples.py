@@ -74,7 +74,9 @@ class SampleSet:
 def _numeric(frame, column, row_labels, allow_blank=True, low=None, high=None, what="value"):
     raw = frame[column]
     values = pd.to_numeric(raw, errors="coerce").to_numpy(dtype=float)
-    bad = np.isnan(values) & raw.notna().to_numpy() & (raw.astype(str).str.strip() != "").to_numpy()
+    bad = np.isnan(values) & raw.notna().to_numpy()
+    if bad.any():   # text cells: only blanks may be non-numbers
+        bad[bad] = (raw[bad].astype(str).str.strip() != "").to_numpy()
     if bad.any():
         i = int(np.flatnonzero(bad)[0])
         raise InputError(f"row {row_labels[i]}, column {column!r}: {raw.iloc[i]!r} is not a number")
