@@ -184,6 +184,14 @@ def test_bad_input_names_row_column_and_reason(column, value, message):
         read_samples(frame)
 
 
+def test_blank_text_cells_are_not_measured():
+    frame = _vent_frame()[["sample", "T [degC]", "P [bar]", "pH", "Cl- [mmol/kg]"]].copy()
+    frame["Na+ [mmol/kg]"] = pd.Series([1.0] * len(frame), dtype=object)
+    frame.loc[1, "Na+ [mmol/kg]"] = "  "
+    s = read_samples(frame)
+    assert np.isnan(s.totals["Na+"][1]) and s.totals["Na+"][0] == pytest.approx(1e-3)
+
+
 def test_units_mass_and_volume_based():
     # 23 mg/L of Na+ at density 1.0 is 1.0004 mmol per kg of water here (trace solution); ppm by
     # mass likewise; 1 mmol/L with the density estimated is flagged as estimated

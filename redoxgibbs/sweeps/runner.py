@@ -233,7 +233,15 @@ def load_results(out_dir, columns=None):
 
 def _standard_ranks(x):
     """Ranks of x (ties averaged), centred and scaled to unit variance; NaN if x is constant."""
-    r = pd.Series(x).rank().to_numpy(dtype=float, copy=True)
+    order = np.argsort(x, kind="quicksort")          # order within ties does not matter
+    xs = x[order]
+    first = np.empty(x.size, dtype=bool)
+    first[:1] = True
+    np.not_equal(xs[1:], xs[:-1], out=first[1:])
+    starts = np.flatnonzero(first)
+    counts = np.diff(np.append(starts, x.size))
+    r = np.empty(x.size)
+    r[order] = np.repeat(starts + (counts + 1) / 2.0, counts)   # mean 1-based rank of each tie
     r -= r.mean()
     sd = r.std()
     return r / sd if sd > 0 else np.full(r.shape, np.nan)
