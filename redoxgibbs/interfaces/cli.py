@@ -2,6 +2,7 @@
 
 import argparse
 import itertools
+import os
 import sys
 
 import numpy as np
@@ -242,6 +243,9 @@ def main(argv=None):
     except RedoxGibbsError as err:
         print(f"redoxgibbs: error: {err}", file=sys.stderr)
         return 2
+    except BrokenPipeError:   # output piped into a reader that stopped early (e.g. head)
+        sys.stdout = open(os.devnull, "w")
+        return 0
 
 
 if __name__ == "__main__":
