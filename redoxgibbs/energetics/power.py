@@ -17,7 +17,7 @@ Per-cell requirements (a low-high range, never one number):
   (about 1e-21 to 1e-19 W per cell in marine sediments; from memory)
 """
 
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 
 import numpy as np
 
@@ -89,17 +89,13 @@ class PowerUnits:
 
     per_volume: str = "W/m3"
     per_mass: str = "W/kg"
+    volume_factor: float = field(init=False)    # value in per_volume per W/m3
+    mass_factor: float = field(init=False)      # value in per_mass per W/kg
 
-    def __post_init__(self):
-        self.volume_factor, self.mass_factor   # refuse units of the wrong kind at once
-
-    @property
-    def volume_factor(self):
-        return conversion_factor(self.per_volume, "W/m3", "power_per_volume unit")
-
-    @property
-    def mass_factor(self):
-        return conversion_factor(self.per_mass, "W/kg", "power_per_mass unit")
+    def __post_init__(self):   # units of the wrong kind are refused here, naming the field
+        object.__setattr__(self, "volume_factor",
+                           conversion_factor(self.per_volume, "W/m3", "power_per_volume unit"))
+        object.__setattr__(self, "mass_factor", conversion_factor(self.per_mass, "W/kg", "power_per_mass unit"))
 
     @property
     def volume_column(self):

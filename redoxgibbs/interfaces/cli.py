@@ -19,12 +19,21 @@ from .report import SCREENING_NOTE
 __all__ = ["main"]
 
 
-
 def _number_list(text, field):
     try:
         return [float(x) for x in text.split(",") if x.strip()]
     except ValueError:
         raise RedoxGibbsError(f"--{field}: expected comma-separated numbers, got {text!r}") from None
+
+
+def _write_frame(frame, fmt, table_columns, note=""):
+    """Print a result table: every column as CSV, or the chosen columns as text with the caution."""
+    if fmt == "csv":
+        sys.stdout.write(frame.to_csv(index=False, float_format="%.6g"))
+    else:
+        print(frame[table_columns].to_string(index=False, float_format=lambda v: f"{v:.4g}"))
+        print("\n" + note + SCREENING_NOTE)
+    return 0
 
 
 def _stdstate(args):
@@ -82,15 +91,10 @@ def _insitu(args):
                                    water_per_kg_solution=W, density_kg_L=rho)
     per_species = [default_database().resolve(s) for s in args.per_species or []]
     frame = energetics.to_frame(per_species)
-    if args.format == "csv":
-        sys.stdout.write(frame.to_csv(index=False, float_format="%.6g"))
-    else:
-        cols = ["sample", "reaction", "T_C", "dGr_kJ_per_mol", "dGr_kJ_per_mol_e",
-                *[f"dGr_kJ_per_mol_{s}" for s in per_species], "limiting_species",
-                "energy_density_J_per_kg", "missing_species"]
-        print(frame[cols].to_string(index=False, float_format=lambda v: f"{v:.4g}"))
-        print("\nenergy_density_J_per_kg is per kg of water. " + SCREENING_NOTE)
-    return 0
+    cols = ["sample", "reaction", "T_C", "dGr_kJ_per_mol", "dGr_kJ_per_mol_e",
+            *[f"dGr_kJ_per_mol_{s}" for s in per_species], "limiting_species",
+            "energy_density_J_per_kg", "missing_species"]
+    return _write_frame(frame, args.format, cols, "energy_density_J_per_kg is per kg of water. ")
 
 
 def _reactions(args):
@@ -141,14 +145,9 @@ def _mix(args):
         rule=args.temperature_rule, activity_model_name=args.activity_model)
     if args.plot:
         mixing_figure(frame, args.plot)
-    if args.format == "csv":
-        sys.stdout.write(frame.to_csv(index=False, float_format="%.6g"))
-    else:
-        cols = ["hydrothermal_fraction", "T_C", "pH_insitu", "reaction", "dGr_kJ_per_mol",
-                "energy_J_per_kg_mixed_fluid", "energy_J_per_kg_hydrothermal_fluid"]
-        print(frame[cols].to_string(index=False, float_format=lambda v: f"{v:.4g}"))
-        print("\n" + SCREENING_NOTE)
-    return 0
+    cols = ["hydrothermal_fraction", "T_C", "pH_insitu", "reaction", "dGr_kJ_per_mol",
+            "energy_J_per_kg_mixed_fluid", "energy_J_per_kg_hydrothermal_fluid"]
+    return _write_frame(frame, args.format, cols)
 
 
 def _sweep(args):

@@ -145,11 +145,12 @@ def load_scenario(path):
                 raise InputError(f"scenario: [mixing] {role} = {mixing.get(role)!r} is not a sample name")
         if ("temperatures_C" in mixing) == ("fractions" in mixing):
             raise InputError("scenario: [mixing] needs either temperatures_C or fractions")
+    reaction_spec = data.get("reactions", {})
     return Scenario(title=data.get("title", path.stem), samples=frame,
-                    reactions=_reactions(data.get("reactions", {}), frame),
+                    reactions=_reactions(reaction_spec, frame),
                     activity_model=data.get("activity_model", "bdot"), supplies=supplies, cells=cells,
                     power_units=power_units,
-                    per_species=[default_database().resolve(x) for x in data.get("reactions", {}).get("per_species", [])],
+                    per_species=[default_database().resolve(x) for x in reaction_spec.get("per_species", [])],
                     minimum_energy_kJ=float(data.get("minimum_energy_kJ_per_mol", DEFAULT_MINIMUM_ENERGY_KJ)),
                     source=path, mixing=mixing, raw=data)
 

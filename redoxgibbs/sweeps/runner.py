@@ -258,7 +258,8 @@ def summarize(out_dir, percentiles=(5, 50, 95), batch=8):
     names = pq.read_schema(_chunk_paths(out_dir)[0]).names
     inputs = [c for c in names if c.startswith("input:")]
     outputs = [c for c in names if "|" in c]
-    draws = load_results(out_dir, ["draw"] + inputs)
+    # inputs and outputs are read the same way (chunk by chunk), so their rows stay aligned
+    draws = load_results(out_dir, inputs)
     x = {i: draws[i].to_numpy(float) for i in inputs}
     x_ranks = np.array([_standard_ranks(v) for v in x.values()]).reshape(len(inputs), len(draws))
     rows, corr = [], []
