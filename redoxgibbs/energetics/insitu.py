@@ -2,8 +2,10 @@
 
 dGr = dG0(T, P) + RT ln Q, with log10 Q = sum_i nu_i log10 a_i (activities from speciation);
 affinity = -dGr. Energy density: -dGr times the amount of reaction the limiting reactant allows
-per kg of water, min over consumed dissolved species of (molality / |nu|); water, H+ and solids
-are not limiting. Zero, and flagged, where the reaction is not exergonic.
+per kg of water, min over consumed dissolved species of (pool / |nu|), where the pool is the
+analytical total of the species' component (dissolved inorganic carbon for CO2(aq), HCO3- or
+CO3^2-; total sulfide for H2S(aq) or HS-), whichever species the reaction names; water, H+,
+OH-, gases given as fugacities and solids are not limiting. Zero, and flagged, where the reaction is not exergonic.
 """
 
 from dataclasses import dataclass
@@ -22,7 +24,7 @@ LN10 = np.log(10.0)
 #: Smallest |dGr| a catabolism is taken to use, per mole of reaction as written (Hoehler 2004,
 #: Geobiology 2, 205: about -10 kJ/mol for methanogens in sediments; from memory). User-settable.
 DEFAULT_MINIMUM_ENERGY_KJ = 10.0
-NOT_LIMITING = ("H2O(l)", "H+")
+NOT_LIMITING = ("H2O(l)", "H+", "OH-")
 
 
 def gibbs_energy_kernel(dG0, log10_a, nu, T_K):
@@ -159,8 +161,7 @@ def _activity_columns(result, names, db, gas_fugacity):
         elif name in index:
             k = index[name]
             la[:, j] = np.where(result.present[:, k], activity[:, k], np.nan)
-            # a component master may react as a whole: its pool is the analytical total
-            amounts[:, j] = result.totals.get(name, result.molality[:, k])
+            amounts[:, j] = result.pool_molality(name)
     return la, amounts
 
 

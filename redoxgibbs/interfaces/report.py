@@ -153,6 +153,16 @@ def _table_html(frame, max_rows=60):
                                         classes="data", na_rep="")
 
 
+def _solid_reactions(reactions):
+    """'reaction (solid, ...)' for each reaction that takes a solid as reactant or product."""
+    items = []
+    for x in reactions:
+        solids = [s for s in x.reaction.species if x.reaction.db.record(s).state == "solid"]
+        if solids:
+            items.append(f"{x.name} ({', '.join(solids)})")
+    return "; ".join(items)
+
+
 def write_outputs(assessment, out_dir):
     """Write every output of an assessment into ``out_dir``; returns the path of report.html."""
     out = Path(out_dir)
@@ -181,7 +191,12 @@ def write_outputs(assessment, out_dir):
         "Redox couples are not equilibrated with each other; pH measured at another temperature is "
         "carried to in-situ conditions at constant totals and charge balance.",
         "Energy density: -dGr times the amount of reaction allowed by the limiting dissolved "
-        "reactant (component totals for measured species); zero where not exergonic.",
+        "reactant, whose amount is the total of its pool (dissolved inorganic carbon for CO2(aq), "
+        "HCO3- or CO3^2-; total sulfide for H2S(aq) or HS-; total ammonia; each component's "
+        "total), whichever species the reaction or the sample columns name; zero where not "
+        "exergonic.",
+        "Solids are in excess (never limiting): " + (_solid_reactions(sc.reactions) or "no reaction "
+                                                      "here uses a solid") + ".",
         f"Minimum usable energy: {sc.minimum_energy_kJ:g} kJ per mol of reaction (Hoehler 2004).",
         "Supply models: " + ("; ".join(s.describe() for s in sc.supplies) or "none given") + ".",
         f"Per-cell requirement: {sc.cells.describe()}; cell numbers are given as a low-high range.",

@@ -49,6 +49,7 @@ class SpeciationResult:
     charge_imbalance: np.ndarray        # sum z m [eq/kg], (n,)
     log10_water_activity: np.ndarray    # (n,)
     totals: dict                        # component -> total molality (n,)
+    composition: np.ndarray             # (n_species, n_masters): species = composition . masters + ...
     minerals: list
     saturation_index: np.ndarray        # (n, n_minerals)
     iterations: np.ndarray              # Newton iterations per sample (both stages), (n,)
@@ -56,6 +57,23 @@ class SpeciationResult:
     beyond_model_validity: np.ndarray   # ionic strength above the model's stated limit, (n,)
     present: np.ndarray                 # bool (n, n_species): built only from measured components
     density_estimated: np.ndarray       # per-litre units converted with an estimated density, (n,)
+
+    def pool_molality(self, species):
+        """Amount of ``species`` the sample's pools allow [mol/kg water], (n,).
+
+        Species that equilibrate fast (CO2(aq), HCO3-, CO3^2- and their ion pairs; H2S(aq) and
+        HS-; NH4+ and NH3(aq)) share their component's analytical total: a reaction consuming any
+        one of them can draw on the whole pool, whichever species a reaction or column names. A
+        species built from several components is limited by the scarcest (total / coefficient);
+        one built from water alone (H+, OH-) is not limited (inf).
+        """
+        c = self.composition[self.species.index(species)]
+        used = np.flatnonzero(c > 0)
+        if used.size == 0:
+            return np.full(len(self.samples), np.inf)
+        masters = list(self.totals)
+        pools = np.column_stack([self.totals[masters[j]] / c[j] for j in used])
+        return pools.min(axis=1)
 
     @property
     def log10_activity(self):
@@ -313,6 +331,7 @@ def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, 
         samples=s.names, species=system.species, T_K=s.T_K, P_bar=s.P_bar, molality=m,
         log10_gamma=lg, ionic_strength=I, pH=-xH, charge_imbalance=m @ system.charge,
         log10_water_activity=law, totals={mn: m @ system.nu[:, j] for j, mn in enumerate(masters)},
+        composition=system.nu,
         minerals=system.minerals, saturation_index=si, iterations=iterations,
         activity_model=model.name, beyond_model_validity=I > model.I_max, present=present,
         density_estimated=s.density_estimated)
