@@ -102,10 +102,14 @@ def test_cold_ocean_states():
     # about -20 C near 2 kbar is liquid (ice Ih/III boundary at 251.165 K, 208.566 MPa, R14-08)
     w = water_state(253.15, 2000.0)
     assert w.density_kg_m3 == pytest.approx(iapws.IAPWS95(T=253.15, P=200.0).rho, rel=1e-8)
+    # below the melting curve the metastable liquid is evaluated (the solvent of a brine), against
+    # the iapws package's IAPWS-95, down to -20.15 C; colder is refused as ice
+    for T, P in ((253.15, 1000.0), (263.15, 1.0)):   # ice Ih melts at about -10 C at 1 kbar
+        assert water_state(T, P).density_kg_m3 == pytest.approx(iapws.IAPWS95(T=T, P=P / 10).rho, rel=1e-8)
     with pytest.raises(OutOfValidityError, match="frozen"):
-        water_state(253.15, 1000.0)   # ice Ih melts at about -10 C at 1 kbar
+        water_state(252.0, 1000.0)
     with pytest.raises(OutOfValidityError, match="ice Ih"):
-        water_state(263.15, 1.0)
+        water_state(252.0, 1.0)
 
 
 def test_refusals_name_the_problem():

@@ -19,7 +19,10 @@ from ..species.database import R_J_MOL_K, default_database
 from ..species.properties import standard_properties
 from ..water.born import debye_hueckel_A, debye_hueckel_B
 from ..water.dielectric import dielectric_johnson_norton_1991
+from ..errors import OutOfValidityError
+from ..water.ice import freezing_temperature
 from ..water.iapws95 import psat_convention_bar, water_state
+from ..water.melting import T_TRIPLE_K
 from .samples import SampleSet, read_samples
 from .system import build_system
 
@@ -74,6 +77,11 @@ class SpeciationResult:
         masters = list(self.totals)
         pools = np.column_stack([self.totals[masters[j]] / c[j] for j in used])
         return pools.min(axis=1)
+
+    def freezing_point_K(self):
+        """Temperature [K] at which each sample freezes to ice at its pressure, from its water
+        activity under the chosen activity model (:func:`~redoxgibbs.water.ice.freezing_temperature`)."""
+        return freezing_temperature(self.P_bar, self.log10_water_activity * LN10)
 
     @property
     def log10_activity(self):
@@ -189,8 +197,9 @@ def _newton(system, model, logK, A, B, T_K, totals, fixed_log_a, log_aH, charge_
         # one fixed-point update of gamma and a_w at the current unknowns, then a Newton step at
         # those activity coefficients (their lag shrinks the error about 50-fold per iteration)
         ma = molalities(idx, lg[idx], log_aw[idx])
-        lg_new = model.log10_gamma(system.species, z, ionic_strength(ma, z), T_K[idx], A[idx], B[idx])
-        aw_new = log10_water_activity(ma.sum(axis=1))
+        I_now = ionic_strength(ma, z)
+        lg_new = model.log10_gamma(system.species, z, I_now, T_K[idx], A[idx], B[idx])
+        aw_new = model.log10_water_activity(system.species, z, ma, I_now, T_K[idx], A[idx], B[idx])
         changed = np.abs(lg_new - lg[idx]).max(axis=1)
         lg[idx], log_aw[idx] = lg_new, aw_new
         ma = molalities(idx, lg_new, aw_new)
@@ -256,6 +265,23 @@ def _presence(system, totals, gas_masters):
     present = ~(uses & unmeasured[:, None, :]).any(axis=2)
     nonzero = present & ~(uses & zero[:, None, :]).any(axis=2)
     return present, nonzero, unmeasured, zero
+
+
+def _refuse_frozen_samples(samples, log10_aw):
+    """Refuse, by name, samples colder than their own freezing point (only samples below the
+    triple-point temperature can be frozen: a dissolved salt only lowers the freezing point)."""
+    cold = np.flatnonzero(samples.T_K < T_TRIPLE_K)
+    if cold.size == 0:
+        return
+    T_freeze = freezing_temperature(samples.P_bar[cold], log10_aw[cold] * LN10)
+    frozen = samples.T_K[cold] < T_freeze - 0.005
+    if frozen.any():
+        i = cold[np.flatnonzero(frozen)[0]]
+        tf = T_freeze[np.flatnonzero(frozen)[0]]
+        raise OutOfValidityError(
+            f"row {samples.names[i]}: the fluid is frozen at {samples.T_K[i] - 273.15:.4g} degC and "
+            f"{samples.P_bar[i]:.6g} bar: its freezing point there is {tf - 273.15:.4g} degC (ice Ih "
+            f"against its water activity, {10 ** log10_aw[i]:.5f}); give a warmer temperature")
 
 
 def species_in_samples(samples, db=None):
@@ -327,6 +353,7 @@ def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, 
     si = logK_min + la @ system.nu_min.T + law[:, None] * system.nu_w_min + xH[:, None] * system.nu_H_min
     mineral_ok = ~((system.nu_min[None, :, :] != 0) & (unmeasured | zero)[:, None, :]).any(axis=2)
     si = np.where(mineral_ok, si, np.nan)
+    _refuse_frozen_samples(s, law)
     return SpeciationResult(
         samples=s.names, species=system.species, T_K=s.T_K, P_bar=s.P_bar, molality=m,
         log10_gamma=lg, ionic_strength=I, pH=-xH, charge_imbalance=m @ system.charge,

@@ -36,6 +36,9 @@ __all__ = [
     "T_CRITICAL_K",
     "P_CRITICAL_BAR",
     "M_WATER_KG_PER_MOL",
+    "SUPERCOOLED_LIMIT_K",
+    "liquid_density_kg_m3",
+    "specific_properties",
 ]
 
 T_CRITICAL_K = helmholtz.T_C    # IAPWS-95
@@ -43,6 +46,12 @@ P_CRITICAL_BAR = 220.64
 RHO_CRITICAL = helmholtz.RHO_C  # kg/m3
 M_WATER_KG_PER_MOL = 0.018015      # cantera's molar mass of H2O (its liquid-water phase); molar
                                     # properties and V = M / rho use this one value throughout
+#: Coldest liquid evaluated [K]. Below the pure-water melting curve water is metastable, yet the
+#: solvent of a saline fluid is liquid down to the fluid's own freezing point (checked per sample
+#: by the speciation). IAPWS-95 extrapolates reasonably into the supercooled liquid down to the
+#: homogeneous nucleation temperature (IAPWS-95 release; about 235 K at 0.1 MPa); this project
+#: stops at the lower limit of its aqueous data, -20.15 degC.
+SUPERCOOLED_LIMIT_K = 253.0
 P_ONE_ATM_BAR = 1.01325
 T_BOILING_1ATM_K = 373.124      # IAPWS-95 normal boiling point (ITS-90)
 _DT_FOR_DALPHA = 0.05           # K, central difference of alpha(T) at constant P
@@ -197,7 +206,7 @@ def _density_by_cantera(T, P_Pa):
     return phase.density
 
 
-def _densities(T, P_Pa):
+def liquid_density_kg_m3(T, P_Pa):
     """Liquid (or supercritical) densities at 1-D arrays of distinct states, refusing vapour."""
     start = np.where(T < T_CRITICAL_K, _saturated_liquid_density_auxiliary(T), 1100.0)
     rho, failed = _density_newton(T, P_Pa, start)
@@ -212,7 +221,7 @@ def _densities(T, P_Pa):
     return rho
 
 
-def _properties(T, rho, caloric):
+def specific_properties(T, rho, caloric):
     """Rows rho, G, H, S, Cp, alpha, beta [1/Pa] per kg (J/kg...) at arrays of T and density."""
     delta, tau = rho / RHO_CRITICAL, T_CRITICAL_K / T
     r, i0 = helmholtz.residual(delta, tau), helmholtz.ideal(delta, tau)
@@ -233,7 +242,7 @@ def _properties(T, rho, caloric):
 def _alpha_at(T, P_Pa, rho_near):
     """Expansivity at (T, P) from a density close to the answer (one Newton step)."""
     p, slope = _pressure_and_slope(rho_near, T)
-    return _properties(T, rho_near - (p - P_Pa) / slope, caloric=False)[4]
+    return specific_properties(T, rho_near - (p - P_Pa) / slope, caloric=False)[4]
 
 
 def _dalpha_dT(T, P_Pa, rho, alpha):
@@ -251,15 +260,15 @@ def _reference_offsets():
     T, P_Pa = 300.0, 1e6
     phase = _phase()
     phase.TP = T, P_Pa
-    _, h, S, _, _, _ = _properties(np.array([T]), np.array([phase.density]), caloric=True)
+    _, h, S, _, _, _ = specific_properties(np.array([T]), np.array([phase.density]), caloric=True)
     return (phase.enthalpy_mole / 1000.0 - h[0] * M_WATER_KG_PER_MOL,
             phase.entropy_mole / 1000.0 - S[0] * M_WATER_KG_PER_MOL)
 
 
 def _evaluate(T, P_Pa, caloric=True):
     """Rows rho, G, H, S, Cp, alpha, beta, d(alpha)/dT at 1-D arrays of distinct states (molar)."""
-    rho = _densities(T, P_Pa)
-    g, h, S, cp, alpha, beta = _properties(T, rho, caloric)
+    rho = liquid_density_kg_m3(T, P_Pa)
+    g, h, S, cp, alpha, beta = specific_properties(T, rho, caloric)
     dH, dS = _reference_offsets()
     M = M_WATER_KG_PER_MOL
     dalpha = _dalpha_dT(T, P_Pa, rho, alpha) if caloric else np.full(T.shape, np.nan)
@@ -268,11 +277,13 @@ def _evaluate(T, P_Pa, caloric=True):
 
 def _refuse_frozen(T, P_Pa):
     ice = frozen_phase(T, P_Pa)
-    if np.any(ice != ""):
-        i = int(np.flatnonzero(ice != "")[0])
+    frozen = (ice != "") & (T < SUPERCOOLED_LIMIT_K)
+    if np.any(frozen):
+        i = int(np.flatnonzero(frozen)[0])
         raise OutOfValidityError(
             f"T, P: water is frozen ({ice[i]}) at {T[i] - 273.15:.6g} degC, {P_Pa[i] / 1e5:.6g} bar "
-            "(IAPWS R14-08 melting curve); raise the temperature or change the pressure")
+            f"(IAPWS R14-08 melting curve), and colder than the supercooled liquid evaluated here "
+            f"({SUPERCOOLED_LIMIT_K - 273.15:.4g} degC); raise the temperature or change the pressure")
     vapour = (T < T_TRIPLE_K) & (P_Pa < 611.657)
     if np.any(vapour):
         raise OutOfValidityError("P: below the triple-point pressure water is not liquid")
@@ -282,7 +293,10 @@ def water_state(T_K, P_bar, caloric=True):
     """IAPWS-95 properties of liquid or supercritical water at broadcast arrays of T [K], P [bar].
 
     Each distinct (T, P) pair is evaluated once. States where water is vapour (P below
-    saturation) or ice (below the IAPWS R14-08 melting curve) are refused by name. Without
+    saturation) are refused by name; below the IAPWS R14-08 melting curve the metastable liquid
+    is evaluated down to ``SUPERCOOLED_LIMIT_K`` (the solvent of a saline fluid is liquid there;
+    whether a fluid is frozen depends on its water activity, see ``water.ice``), colder states are
+    refused as ice. Without
     ``caloric`` (H, S, Cp and d(alpha)/dT) they are left NaN (G, density, alpha and beta suffice
     for Gibbs energies) and the evaluation costs about half.
     """
