@@ -130,3 +130,12 @@ def test_stdstate_cli_product_of_lists_and_errors(capsys):
     assert code == 0 and len(pd.read_csv(io.StringIO(text))) == 4
     assert main(["stdstate", "H2O(l) = H+ + OH-", "--temperature", "-30", "--pressure", "1"]) == 2
     assert "frozen" in capsys.readouterr().err
+
+
+def test_formation_species_are_flagged_outside_their_stated_range():
+    # FeCl+ has no published enthalpy: constant (zero) enthalpy is trusted only at 15-35 C;
+    # ion pairs with an enthalpy from -20 to 100 C
+    p = reaction_properties("Fe^2+ + Cl- = FeCl+", [10.0, 25.0, 50.0], "psat")
+    assert p.flags["outside_formation_T_range"].tolist() == [True, False, True]
+    q = reaction_properties("Ca^2+ + SO4^2- = CaSO4(aq)", [-5.0, 25.0, 99.0, 120.0], [1.0, 1.0, 1.0, 5.0])
+    assert q.flags["outside_formation_T_range"].tolist() == [False, False, False, True]

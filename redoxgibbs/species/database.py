@@ -1,6 +1,7 @@
 """Species data: loading the plain-text tables of species_data/ into validated records.
 
-Five kinds of record, one per standard-state model: ``hkf`` (aqueous, revised HKF), ``formation``
+Five kinds of record, one per standard-state model: ``hkf`` (aqueous, revised HKF; regressed
+parameters, or parameters estimated from 25 C properties by the published correlations), ``formation``
 (aqueous or solid, from a formation reaction of other species), ``nasa7`` (ideal gas),
 ``maier_kelley`` (solid) and ``iapws95`` (the solvent). Users add their own CSV files with the
 same columns and pass them to :func:`load_species_data`; the file kind is told by its columns.
@@ -77,6 +78,50 @@ def _hkf_records(table, path):
                     "Cp_tab_J": None if _blank(row["Cp"]) else row["Cp"] * c,
                     "V_tab_cm3": None if _blank(row["V"]) else float(row["V"])},
             source=row["source"], from_memory=_memory(row))
+
+
+def _entropy_offsets_by_charge(hkf_records):
+    """beta_Z of the omega-entropy correlation, per charge Z, from the regressed HKF ions:
+    the median of omega + 1514.4 S over the ions of that charge (0 for neutral species)."""
+    from ..standard_state.hkf_estimates import OMEGA_ENTROPY_SLOPE
+
+    by_charge = {}
+    for r in hkf_records:
+        if r.charge != 0 and r.name != "H+":
+            by_charge.setdefault(r.charge, []).append(
+                r.params["omega_ref_cal"] - OMEGA_ENTROPY_SLOPE * r.S / CAL_TO_J)
+    return {0: 0.0, **{z: float(np.median(v)) for z, v in by_charge.items()}}
+
+
+def _estimated_hkf_records(table, path, hkf_records):
+    """HKF records whose parameters come from 25 C properties through the published correlations
+    (:mod:`redoxgibbs.standard_state.hkf_estimates`)."""
+    from ..standard_state.hkf_estimates import (a1_constant_nonsolvation_volume, c1_closing_heat_capacity,
+                                                 c2_from_heat_capacity_shock_helgeson_1988,
+                                                 omega_from_entropy_shock_helgeson_1990)
+    from ..water.born import reference_born_functions
+
+    born = reference_born_functions()
+    X_r, Q_r = float(born.X), float(born.Q)
+    beta = _entropy_offsets_by_charge(hkf_records)
+    for _, row in table.iterrows():
+        z = int(row["charge"])
+        if z not in beta:
+            raise SpeciesDataError(f"{path}: {row['name']}: no regressed HKF ion of charge {z} to set "
+                                   "the omega-entropy correlation")
+        G, H = row["G_f_kJ_mol"] * 1e3 / CAL_TO_J, row["H_f_kJ_mol"] * 1e3 / CAL_TO_J
+        S, Cp = row["S_J_mol_K"] / CAL_TO_J, row["Cp_J_mol_K"] / CAL_TO_J
+        omega = float(omega_from_entropy_shock_helgeson_1990(S, beta[z]))
+        c2 = float(c2_from_heat_capacity_shock_helgeson_1988(Cp))
+        c1 = float(c1_closing_heat_capacity(Cp, c2, omega, X_r))
+        a1 = float(a1_constant_nonsolvation_volume(row["V_cm3_mol"], omega, Q_r))
+        yield SpeciesRecord(
+            name=row["name"], formula=row["formula"], elements=_elements(row, path), charge=z,
+            state="aq", model="hkf", G_f=G * CAL_TO_J, H_f=H * CAL_TO_J, S=S * CAL_TO_J,
+            params={"linear_cal": np.array([G, H, S, a1, 0.0, 0.0, 0.0, c1, c2]), "omega_ref_cal": omega,
+                    "Cp_tab_J": float(row["Cp_J_mol_K"]), "V_tab_cm3": float(row["V_cm3_mol"]),
+                    "estimated": row["method"]},
+            source=row["source"] + "; parameters: " + row["method"], from_memory=_memory(row))
 
 
 def _gas_records(table, path):
@@ -202,7 +247,7 @@ def _formation_records(table, path, known):
                 charge=int(row["charge"]), state=row["state"], model="formation",
                 G_f=G_f, H_f=H_f, S=S,
                 params={"parents": parents, "dG_r_J": dG_r, "dH_r_J": dH_r,
-                        "T_max_C": float(row["T_max_C"]), "dH_r_missing":
+                        "T_range_C": (float(row.get("T_min_C", 0.0)), float(row["T_max_C"])), "dH_r_missing":
                         not own and _blank(row["dH_r_kJ_mol"]), "tabulated_own_values": own,
                         "reaction": row["formation"]},
                 source=row["source"], from_memory=_memory(row))
@@ -241,6 +286,8 @@ def _kind(columns):
         return "hkf"
     if "formation" in cols:
         return "formation"
+    if "V_cm3_mol" in cols and "method" in cols:
+        return "hkf_estimated"
     if "nasa_name" in cols:
         return "gas"
     if "G_f_cal" in cols:
@@ -265,7 +312,7 @@ def load_species_data(extra_files=(), check=True):
     With ``check`` (the default) every record is validated (see :mod:`.checks`) and a
     :class:`~redoxgibbs.errors.SpeciesDataError` lists each failing check and by how much.
     """
-    tables = {"hkf": [], "formation": [], "gas": [], "water": [], "mineral": [], "heat_capacity": [],
+    tables = {"hkf": [], "hkf_estimated": [], "formation": [], "gas": [], "water": [], "mineral": [], "heat_capacity": [],
               "activity": []}
     for path in list(_default_files()) + [Path(p) for p in extra_files]:
         if not path.exists():
@@ -282,6 +329,9 @@ def load_species_data(extra_files=(), check=True):
 
     for path, t in tables["hkf"]:
         add(_hkf_records(t, path))
+    regressed = list(records.values())
+    for path, t in tables["hkf_estimated"]:
+        add(_estimated_hkf_records(t, path, regressed))
     for path, t in tables["gas"]:
         add(_gas_records(t, path))
     for path, t in tables["water"]:

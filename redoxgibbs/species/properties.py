@@ -4,7 +4,6 @@ Water is evaluated once per distinct (T, P); each model then fills its columns o
 (n_states, n_species) result arrays: G, H [J/mol], S, Cp [J/mol/K], V [cm3/mol].
 """
 
-import functools
 from dataclasses import dataclass
 
 import numpy as np
@@ -17,7 +16,7 @@ from ..standard_state.hkf import (HKFParameters, SolventTerms, hkf_enthalpy, hkf
                                   hkf_gibbs, hkf_heat_capacity, hkf_volume, solvation_omega)
 from ..standard_state.mineral import maier_kelley_properties
 from ..standard_state.solvent import apparent_water_properties
-from ..water.born import born_functions
+from ..water.born import born_functions, reference_born_functions
 from ..water.dielectric import dielectric_along_TP
 from ..water.iapws95 import water_state
 from .database import default_database
@@ -63,15 +62,9 @@ def validate_states(T_K, P_bar):
             "equations; give pressures up to 5000 bar")
 
 
-@functools.lru_cache(maxsize=1)
-def _reference_born():
-    """Born functions at 25 C, 1 bar (the reference state of the HKF parameters)."""
-    return born_functions(dielectric_along_TP(water_state(298.15, 1.0)))
-
-
 def _solvent_terms(water, params, n):
     born = born_functions(dielectric_along_TP(water))
-    born_r = _reference_born()
+    born_r = reference_born_functions()
     gfun = g_function_shock_1992(water.T_K, water.P_bar, water)
     omega = solvation_omega(params, gfun, n)
     return SolventTerms(Z=born.Z, Y=born.Y, Q=born.Q, X=born.X, Z_ref=float(born_r.Z),
@@ -120,21 +113,22 @@ def _expand_formation(db, name):
     X = sum_r (reaction r) - sum_b c_b B over the whole chain of formation reactions, so that
     property(X) = sum_r [reaction property] - sum_b c_b property(B); the van 't Hoff terms are
     linear in dG_r and dH_r, so the chain's are summed. Returns (dict b -> c_b, dG_r(Tr), dH_r,
-    smallest T_max_C, any reaction enthalpy missing).
+    (T_min_C, T_max_C) narrowed over the chain, any reaction enthalpy missing).
     """
     p = db.record(name).params
     base, dG, dH = {}, p["dG_r_J"], p["dH_r_J"]
-    T_max, missing = p["T_max_C"], p["dH_r_missing"]
+    T_range, missing = p["T_range_C"], p["dH_r_missing"]
     for c, parent in p["parents"]:
         if db.record(parent).model == "formation":
-            sub, sub_dG, sub_dH, sub_T, sub_missing = _expand_formation(db, parent)
+            sub, sub_dG, sub_dH, sub_range, sub_missing = _expand_formation(db, parent)
             for b, cb in sub.items():
                 base[b] = base.get(b, 0.0) - c * cb
             dG, dH = dG - c * sub_dG, dH - c * sub_dH
-            T_max, missing = min(T_max, sub_T), missing or sub_missing
+            T_range = (max(T_range[0], sub_range[0]), min(T_range[1], sub_range[1]))
+            missing = missing or sub_missing
         else:
             base[parent] = base.get(parent, 0.0) + c
-    return base, dG, dH, T_max, missing
+    return base, dG, dH, T_range, missing
 
 
 def _formation_block(db, formation, index, T, arrays, flags, properties):
@@ -154,8 +148,9 @@ def _formation_block(db, formation, index, T, arrays, flags, properties):
             X[:, fcols] = reaction[name] - X[:, bcols] @ C
     for f in flags.values():
         f[:, fcols] = (f[:, bcols].astype(float) @ np.abs(C)) > 0
-    T_max = np.array([e[3] for e in expanded])
-    flags["beyond_formation_T_max"][:, fcols] |= (T - 273.15)[:, None] > T_max
+    T_min, T_max = np.array([e[3] for e in expanded]).T
+    T_C = (T - 273.15)[:, None]
+    flags["outside_formation_T_range"][:, fcols] |= (T_C < T_min - 1e-9) | (T_C > T_max)
     missing = np.array([e[4] for e in expanded])
     flags["formation_enthalpy_missing"][:, fcols] |= missing & np.any(T != 298.15)
 
@@ -182,7 +177,7 @@ def standard_properties(names, T_K, P_bar, db=None, properties=ALL_PROPERTIES, w
     G, H, S, Cp, V = (np.zeros((n, m)) for _ in range(5))
     flags = {"water_density_below_0.35_g_cm3": np.zeros((n, m), bool),
              "below_0C_extrapolated": np.zeros((n, m), bool),
-             "beyond_formation_T_max": np.zeros((n, m), bool),
+             "outside_formation_T_range": np.zeros((n, m), bool),
              "formation_enthalpy_missing": np.zeros((n, m), bool)}
     records = [db.record(x) for x in everything]
     hkf = [r for r in records if r.model == "hkf"]

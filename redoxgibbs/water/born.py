@@ -5,11 +5,16 @@ Shock et al. 1992): Z = -1/eps, Y = (d ln eps/dT)/eps, Q = (d ln eps/dP)/eps,
 X = [d2 ln eps/dT2 - (d ln eps/dT)^2]/eps.
 """
 
+import functools
 from dataclasses import dataclass
 
 import numpy as np
 
-__all__ = ["BornFunctions", "born_functions", "debye_hueckel_A", "debye_hueckel_B"]
+from .dielectric import dielectric_along_TP
+from .iapws95 import water_state
+
+__all__ = ["BornFunctions", "born_functions", "reference_born_functions", "debye_hueckel_A",
+           "debye_hueckel_B"]
 
 # CODATA 2018 exact / recommended constants
 _E_CHARGE = 1.602176634e-19      # C
@@ -35,6 +40,12 @@ def born_functions(dielectric):
         Q=e_p / eps**2,
         X=e_tt / eps**2 - 2.0 * e_t**2 / eps**3,
     )
+
+
+@functools.lru_cache(maxsize=1)
+def reference_born_functions():
+    """Born functions at 25 C, 1 bar (the reference state of the HKF parameters)."""
+    return born_functions(dielectric_along_TP(water_state(298.15, 1.0)))
 
 
 def _inverse_debye_length_per_m(T_K, density_kg_m3, eps):
