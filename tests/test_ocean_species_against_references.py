@@ -82,3 +82,25 @@ def test_heated_seawater_saturates_anhydrite():
     r = speciate(_seawater([25.0, 250.0], [250.0, 250.0], [8.1, np.nan]), "bdot", pH_from_charge_balance=True)
     si = r.saturation_index[:, r.minerals.index("anhydrite")]
     assert si[0] < -0.5 and si[1] > 0
+
+
+def test_henry_constants_of_carbon_monoxide_and_methanol_at_25C():
+    # Sander (2015) Atmos. Chem. Phys. 15, 4399, recommended Henry's-law solubilities at 25 C
+    # (memory): CO 9.7e-6 mol/(m3 Pa) = 9.7e-4 mol/(kg bar); methanol 2.2 mol/(m3 Pa) = 220
+    # mol/(kg bar). Methanol's gas comes from the CRC Handbook table in the chemicals 1.5.2 data
+    # files (-162.3 kJ/mol). 0.1 in log10: the scatter of the compiled measurements
+    from redoxgibbs.species.database import R_J_MOL_K, default_database
+
+    assert _logK("CO(g) = CO(aq)", [25.0])[0] == pytest.approx(np.log10(9.7e-4), abs=0.1)
+    G_aq = default_database().record("CH3OH(aq)").G_f
+    logK = -(G_aq - (-162.3e3)) / (R_J_MOL_K * 298.15 * np.log(10))
+    assert logK == pytest.approx(np.log10(220.0), abs=0.1)
+
+
+def test_ammonium_dissociation_against_bates_pinching_1949():
+    # Bates & Pinching (1949) J. Res. Natl. Bur. Stand. 42, 419 (0-50 C; memory):
+    # pK = 2835.76/T - 0.6322 + 0.001225 T. 0.02: NH3(aq) is a formation species at constant
+    # enthalpy (the ionization heat capacity is small, about 0 +- 10 J/mol/K)
+    T = np.array([0.0, 10.0, 25.0, 40.0, 50.0])
+    expected = 2835.76 / (T + 273.15) - 0.6322 + 0.001225 * (T + 273.15)
+    np.testing.assert_allclose(-_logK("NH4+ = NH3(aq) + H+", T), expected, atol=0.02)

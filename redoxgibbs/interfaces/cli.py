@@ -111,6 +111,21 @@ def _reactions(args):
     return 0
 
 
+def _ledger(args):
+    from ..species.ledger import verification_ledger
+
+    frame = verification_ledger(args.species or None)
+    if args.format == "csv":
+        sys.stdout.write(frame.to_csv(index=False))
+    else:
+        for row in frame.itertuples():
+            memory = "entered from memory" if row.entered_from_memory else "from an outside table"
+            reach = "no outside check yet" if np.isnan(row.checked_to_T_C) else f"checked to {row.checked_to_T_C:g} C"
+            print(f"{row.species} ({row.model}; {memory}; {reach})\n  source: {row.source}\n"
+                  f"  checks: {row.outside_checks}\n")
+    return 0
+
+
 def _assess(args):
     from .assess import run_assessment
     from .report import write_outputs
@@ -204,6 +219,11 @@ def _parser():
                      help="enumerate the couples whose dissolved species these samples contain "
                           "(solids count as available); --donor/--acceptor override either side")
     rxn.set_defaults(run=_reactions)
+    led = sub.add_parser("ledger", help="the verification ledger: each species' source and the outside "
+                                        "checks its data pass")
+    led.add_argument("species", nargs="*", help="species to list (default: all)")
+    led.add_argument("--format", choices=("table", "csv"), default="table")
+    led.set_defaults(run=_ledger)
     ass = sub.add_parser("assess", help="run a scenario file into a folder of results and a report")
     ass.add_argument("scenario", help="scenario TOML (see examples/demo_scenario.toml)")
     ass.add_argument("--out", required=True, help="output folder")

@@ -11,7 +11,7 @@ import matplotlib.pyplot as plt  # noqa: E402
 import numpy as np  # noqa: E402
 import pandas as pd  # noqa: E402
 
-from ..species.database import default_database  # noqa: E402
+from ..species.ledger import verification_ledger  # noqa: E402
 
 __all__ = ["write_outputs", "mixing_figure", "SCREENING_NOTE"]
 
@@ -137,15 +137,15 @@ def _rankings(first, out, units):
 
 
 def _sources(assessment):
-    db = default_database()
+    """The verification ledger of the species this assessment used."""
     used = sorted({s for x in assessment.scenario.reactions for s in x.reaction.species}
                   | set(assessment.speciation.species))
-    rows = []
-    for name in used:
-        rec = db.record(name)
-        rows.append({"species": name, "model": rec.model, "source": rec.source,
-                     "entered from memory": "yes" if rec.from_memory else ""})
-    return pd.DataFrame(rows)
+    ledger = verification_ledger(used)
+    ledger["entered_from_memory"] = np.where(ledger["entered_from_memory"], "yes", "")
+    ledger["checked_to_T_C"] = ledger["checked_to_T_C"].map(lambda t: "none yet" if np.isnan(t) else f"{t:g}")
+    return ledger.rename(columns={"entered_from_memory": "entered from memory",
+                                  "checked_at_25C": "checked at 25 C",
+                                  "checked_to_T_C": "checked to T [C]", "outside_checks": "outside checks"})
 
 
 def _table_html(frame, max_rows=60):
@@ -230,7 +230,7 @@ figure {{ margin: 1.5em 0; }} .plot svg {{ max-width: 100%; height: auto; }}
 <p>Rows with standard-state caveats, species without a measured activity, or |dGr| below the
 minimum usable energy.</p>
 {_table_html(flagged[['site', 'sample', 'reaction', 'dGr_kJ_per_mol', 'below_minimum_energy', 'missing_species', 'flags']])}
-<h2>Data sources of the species used</h2>
+<h2>Data sources and verification ledger of the species used</h2>
 {_table_html(sources, max_rows=500)}
 <h2>Cautions</h2>
 <p class="caution">{html.escape(SCREENING_NOTE)} Values entered from memory are marked above and
@@ -244,6 +244,6 @@ checked against outside references in the project's tests; see DEVELOPERS.md for
            ranking.groupby(["site", "sample"]).head(5).to_markdown(index=False, floatfmt=".4g"), "",
            "## Figures", ""]
     md += [f"![{k}]({k}.png)" for k in svgs]
-    md += ["", "## Data sources", "", sources.to_markdown(index=False), ""]
+    md += ["", "## Data sources and verification ledger", "", sources.to_markdown(index=False), ""]
     (out / "report.md").write_text("\n".join(md))
     return out / "report.html"

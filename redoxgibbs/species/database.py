@@ -296,6 +296,8 @@ def _kind(columns):
         return "mineral"
     if "T_max_K" in cols:
         return "heat_capacity"
+    if "test" in cols and "check" in cols:
+        return "verification"  # the verification ledger (species/ledger.py), not a species record
     if "ion_size_angstrom" in cols:
         return "activity"  # read by the activity layer, not a species record
     raise SpeciesDataError(f"species file with columns {sorted(cols)} is of no known kind")
@@ -313,7 +315,7 @@ def load_species_data(extra_files=(), check=True):
     :class:`~redoxgibbs.errors.SpeciesDataError` lists each failing check and by how much.
     """
     tables = {"hkf": [], "hkf_estimated": [], "formation": [], "gas": [], "water": [], "mineral": [], "heat_capacity": [],
-              "activity": []}
+              "activity": [], "verification": []}
     for path in list(_default_files()) + [Path(p) for p in extra_files]:
         if not path.exists():
             raise InputError(f"species data: file {path} does not exist")
