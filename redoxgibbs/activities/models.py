@@ -105,7 +105,7 @@ def debye_hueckel_sigma(x):
     return np.where(small, 1.0 - 1.5 * x + 1.8 * x**2, exact)
 
 
-def log10_water_activity_extended_dh(molality, charge, ion_size, I, A, B, linear):
+def log10_water_activity_extended_dh(molality, charge, ion_size, I, A, B, linear_sum):
     """log10 a_w from the Gibbs-Duhem equation for an extended Debye-Hueckel model.
 
     For log10 gamma_i = -A z_i^2 sqrt(I) / (1 + a_i B sqrt(I)) + L_i I (each ion its own size a_i
@@ -116,17 +116,20 @@ def log10_water_activity_extended_dh(molality, charge, ion_size, I, A, B, linear
                            + (I / 2) sum_i L_i m_i ],  f_i = m_i z_i^2 / (2 I).
 
     Neutral species count in sum m only (their salting-out terms are left out: below 1e-4 in
-    log10 a_w at their usual molalities). ``molality`` (n, s); ``charge``, ``ion_size``,
-    ``linear`` (s,) or (n, s); I, A, B (n,).
+    log10 a_w at their usual molalities). ``molality`` (n, s); ``charge``, ``ion_size`` (s,);
+    I, A, B and ``linear_sum`` = sum_i L_i m_i (n,). Ions are grouped by size, so sigma is
+    evaluated once per distinct size, not per ion.
     """
     z2 = np.asarray(charge, float) ** 2
-    sI = np.sqrt(I)[:, None]
-    with np.errstate(divide="ignore", invalid="ignore"):
-        f = np.where(I[:, None] > 0, molality * z2 / (2.0 * I[:, None]), 0.0)
-    dh = (2.0 / 3.0) * A * I**1.5 * np.sum(f * debye_hueckel_sigma(ion_size * B[:, None] * sI), axis=1)
-    ions = z2 > 0
-    lin = 0.5 * I * np.sum(np.where(ions, linear * molality, 0.0), axis=1)
-    return -M_WATER_KG * (molality.sum(axis=1) / np.log(10) - dh + lin)
+    ions = np.flatnonzero(z2 > 0)
+    sizes, group = np.unique(np.asarray(ion_size, float)[ions], return_inverse=True)
+    by_size = np.zeros((ions.size, sizes.size))
+    by_size[np.arange(ions.size), group] = z2[ions]
+    sI = np.sqrt(I)
+    mz2 = molality[:, ions] @ by_size                      # sum of m z^2 per size, (n, K)
+    # (2/3) A I^1.5 sum f_i sigma_i = (1/3) A sqrt(I) sum m_i z_i^2 sigma_i
+    dh = A * sI / 3.0 * np.sum(mz2 * debye_hueckel_sigma(sizes * (B * sI)[:, None]), axis=1)
+    return -M_WATER_KG * (molality.sum(axis=1) / np.log(10) - dh + 0.5 * I * linear_sum)
 
 
 @lru_cache(maxsize=1)
@@ -176,11 +179,12 @@ class ActivityModel:
         if self.name == "ideal":
             return log10_water_activity(molality.sum(axis=1))
         charges = np.asarray(charges, float)
-        if self.name == "davies":   # sizes with a_i B = 1 and the linear term 0.3 A z^2
-            return log10_water_activity_extended_dh(molality, charges, 1.0 / B[:, None], I, A, B,
-                                                    0.3 * A[:, None] * charges**2)
+        if self.name == "davies":   # a_i B = 1 for every ion; L_i = 0.3 A z_i^2, sum L m = 0.6 A I
+            return log10_water_activity_extended_dh(molality, charges, np.ones(charges.size), I, A,
+                                                    np.ones_like(I), 0.6 * A * I)
+        ions = charges != 0
         return log10_water_activity_extended_dh(molality, charges, ion_sizes_angstrom(names, charges), I,
-                                                A, B, bdot_helgeson_1969(T_K)[:, None])
+                                                A, B, bdot_helgeson_1969(T_K) * molality[:, ions].sum(axis=1))
 
 
 MODELS = {"ideal": ActivityModel("ideal", np.inf), "davies": ActivityModel("davies", 0.5),
