@@ -16,7 +16,6 @@ import pandas as pd
 import pytest
 from iapws._iapws import _Ice
 
-from redoxgibbs.errors import OutOfValidityError
 from redoxgibbs.speciation.solver import speciate
 from redoxgibbs.water.ice import freezing_temperature, ice_ih_gibbs
 from redoxgibbs.water.melting import melting_temperature
@@ -65,9 +64,12 @@ def test_seawater_freezing_point_against_teos10(p_dbar):
 
 
 def test_seawater_is_liquid_at_minus_1_9_and_frozen_at_minus_2_5():
-    speciate(_seawater([-1.9], [1.0]), "bdot")
-    with pytest.raises(OutOfValidityError, match="seawater -2.5 C.*frozen"):
-        speciate(_seawater([-2.5], [1.0]), "bdot")
+    # one table: the frozen sample is reported in its own row, the other is computed
+    result = speciate(_seawater([-1.9, -2.5], [1.0, 1.0]), "bdot")
+    assert result.failure[0] == "" and np.isfinite(result.pH[0])
+    assert result.failure[1].startswith("frozen") and np.isnan(result.pH[1])
+    summary = result.summary_frame()
+    assert summary.loc[1, "sample"] == "seawater -2.5 C" and "freezing point is -1.9" in summary.loc[1, "failure"]
 
 
 def test_half_molal_nacl_is_liquid_at_minus_1_and_100_bar():

@@ -77,8 +77,13 @@ def test_validity_refusals():
 
 
 def test_low_density_and_cold_states_are_flagged():
-    p = reaction_properties("H2O(l) = H+ + OH-", [500.0, 300.0], [300.0, 500.0])
+    # 500 C, 600 bar: 0.339 g/cm3, above the critical density (below it water is refused as
+    # gas-like) but below the g-function's fitted range
+    p = reaction_properties("H2O(l) = H+ + OH-", [500.0, 300.0], [600.0, 500.0])
     assert list(p.flags["water_density_below_0.35_g_cm3"]) == [True, False]
+    from redoxgibbs.errors import OutOfValidityError
+    with pytest.raises(OutOfValidityError, match="gas-like"):
+        reaction_properties("H2O(l) = H+ + OH-", 500.0, 300.0)
     cold = reaction_properties("H2O(l) = H+ + OH-", -20.0, 2000.0)
     assert bool(cold.flags["below_0C_extrapolated"])
 

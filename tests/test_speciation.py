@@ -173,7 +173,6 @@ def test_pH_from_charge_balance():
 @pytest.mark.parametrize("column,value,message", [
     ("Na+ [mmol/kg]", -1.0, "below the allowed amount"), ("Na+ [mmol/kg]", "lots", "not a number"),
     ("pH", 17.0, "above the allowed pH"), ("Nax+ [mmol/kg]", 1.0, "did you mean"),
-    ("T [degC]", 1200.0, "above 1000 degC"), ("P [bar]", 6000.0, "above 5000 bar"),
     ("Na+ [furlong]", 1.0, "not an amount unit")])
 def test_bad_input_names_row_column_and_reason(column, value, message):
     frame = _vent_frame()[["sample", "T [degC]", "P [bar]", "pH", "Cl- [mmol/kg]"]].copy()
@@ -182,6 +181,33 @@ def test_bad_input_names_row_column_and_reason(column, value, message):
     frame.loc[1, column] = value
     with pytest.raises(InputError, match=message):
         read_samples(frame)
+
+
+@pytest.mark.parametrize("column,value,message", [
+    ("T [degC]", 1200.0, "above 1000 degC"), ("P [bar]", 6000.0, "above 5000 bar"),
+    ("T [degC]", -30.0, "below -20 degC"), ("P [bar]", 1.0, "vapour"), ("T [degC]", 400.0, "gas-like")])
+def test_states_outside_validity_fail_their_own_row_only(column, value, message):
+    frame = _vent_frame()
+    frame[column] = frame[column].astype(object)
+    frame.loc[1, column] = value
+    if column == "P [bar]" and value == 1.0:
+        frame.loc[1, "T [degC]"] = 200.0
+    if value == 400.0:
+        frame.loc[1, "P [bar]"] = 100.0
+    r = speciate(frame)
+    assert message in r.failure[1] and np.isnan(r.pH[1])
+    assert (r.failure[[0, 2]] == "").all() and np.isfinite(r.pH[[0, 2]]).all()
+
+
+def test_hard_samples_converge():
+    # Fe(III) in alkaline water, the pH extremes of the accepted range, hot low-pressure fluid
+    frame = pd.DataFrame({"sample": ["Fe(III) at pH 10.5", "pH -1.9", "pH 15.9", "400 C, 300 bar"],
+                          "T [degC]": [25.0, 25.0, 25.0, 400.0], "P [bar]": [1.0, 1.0, 1.0, 300.0],
+                          "pH": [10.5, -1.9, 15.9, 5.0], "Na+ [mmol/kg]": 100.0, "Cl- [mmol/kg]": 100.0,
+                          "HCO3- [mmol/kg]": 2.0, "Fe^3+ [umol/kg]": [1.0, 0.0, 0.0, 0.0]})
+    r = speciate(frame)
+    assert (r.failure == "").all(), r.failure
+    np.testing.assert_allclose(r.pH, frame["pH"])
 
 
 def test_blank_text_cells_are_not_measured():

@@ -79,6 +79,7 @@ class InsituEnergetics:
     missing_species: np.ndarray     # object (n, r): comma-joined names without an activity
     minimum_energy_kJ: float
     flags: np.ndarray               # object (n, r): caveats of the standard-state data
+    failure: np.ndarray             # object (n,): why a sample could not be computed ('' if it was)
 
     @property
     def dGr_per_electron(self):
@@ -106,7 +107,8 @@ class InsituEnergetics:
             "energy_density_J_per_L": (E * W * rho).ravel(),
             "exergonic": (self.dGr < 0).ravel(),
             "below_minimum_energy": (np.abs(self.dGr) < self.minimum_energy_kJ * 1e3).ravel(),
-            "missing_species": self.missing_species.ravel(), "flags": self.flags.ravel()})
+            "missing_species": self.missing_species.ravel(), "flags": self.flags.ravel(),
+            "failure": rep(self.failure)})
         for species in per_species:
             frame.insert(frame.columns.get_loc("dGr_kJ_per_mol_e") + 1, f"dGr_kJ_per_mol_{species}",
                          self.per_species(species).ravel())
@@ -139,6 +141,13 @@ def _joined_labels(mask, labels):
                          dtype=object)
         out[:, k] = texts[inverse.ravel()]
     return out
+
+
+def _join_flags(a, b):
+    """Element-wise ', '-join of two object arrays of flag texts (broadcast), skipping blanks."""
+    a, b = np.broadcast_arrays(np.asarray(a, dtype=object), np.asarray(b, dtype=object))
+    both = (a != "") & (b != "")
+    return np.where(both, a + ", " + b, np.where(a != "", a, b))
 
 
 def _activity_columns(result, names, db, gas_fugacity):
@@ -181,9 +190,11 @@ def insitu_energetics(result, reactions, db=None, minimum_energy_kJ=DEFAULT_MINI
     # zero product dGr is unbounded and is left undefined, named in missing_species
     zero = np.isneginf(la)
     dGr, log_q = gibbs_energy_kernel(dG0, np.where(np.isfinite(la), la, 0.0), nu, result.T_K)
+    failed = result.failure != ""
     missing_mask = (np.isnan(la)[:, :, None] & (nu[None] != 0)) | (zero[:, :, None] & (nu[None] > 0))
+    missing_mask &= ~failed[:, None, None]     # a failed sample says why in its own column
     no_reactant = (zero[:, :, None] & (nu[None] < 0)).any(axis=1)
-    unknown = missing_mask.any(axis=1)
+    unknown = missing_mask.any(axis=1) | failed[:, None]
     dGr = np.where(unknown, np.nan, np.where(no_reactant, np.inf, dGr))
     log_q = np.where(unknown, np.nan, np.where(no_reactant, np.inf, log_q))
     consumed = np.where(nu < 0, -nu, 0.0)
@@ -196,7 +207,7 @@ def insitu_energetics(result, reactions, db=None, minimum_energy_kJ=DEFAULT_MINI
     missing = _joined_labels(missing_mask, names)
     flag_names = list(props.flags)
     flag_any = np.stack([(props.flags[k].astype(float) @ (nu != 0)) > 0 for k in flag_names], axis=1)
-    flag_text = _joined_labels(flag_any, flag_names)
+    flag_text = _join_flags(_joined_labels(flag_any, flag_names), result.sample_flags()[:, None])
     n = len(result.samples)
     return InsituEnergetics(
         samples=result.samples, reactions=list(reactions), T_K=result.T_K, P_bar=result.P_bar,
@@ -204,4 +215,5 @@ def insitu_energetics(result, reactions, db=None, minimum_energy_kJ=DEFAULT_MINI
         limiting_species=limiting_names, energy_density_J_per_kg=E,
         water_per_kg_solution=np.ones(n) if water_per_kg_solution is None else water_per_kg_solution,
         density_kg_L=np.ones(n) if density_kg_L is None else density_kg_L,
-        missing_species=missing, minimum_energy_kJ=minimum_energy_kJ, flags=flag_text)
+        missing_species=missing, minimum_energy_kJ=minimum_energy_kJ, flags=flag_text,
+        failure=result.failure)

@@ -10,7 +10,8 @@ import numpy as np
 import pandas as pd
 
 from ..species.database import default_database
-from ..speciation.mixing import fraction_for_temperature, mixture_samples
+from ..errors import InputError
+from ..speciation.mixing import end_member_row, fraction_for_temperature, mixture_samples
 from ..speciation.samples import SampleSet, read_samples
 from ..speciation.solver import speciate
 from .insitu import insitu_energetics
@@ -27,10 +28,12 @@ def mixing_energetics(samples, hydrothermal, seawater, reactions, fractions=None
     """
     db = default_database() if db is None else db
     s = samples if isinstance(samples, SampleSet) else read_samples(samples, db=db)
+    a, b = end_member_row(s, hydrothermal), end_member_row(s, seawater)
     ends = speciate(s, activity_model_name, pH_from_charge_balance=True, db=db)
-    a = s.names.index(hydrothermal) if hydrothermal in s.names else None
+    for i in (a, b):
+        if ends.failure[i]:
+            raise InputError(f"mixing: end-member {s.names[i]!r} could not be computed: {ends.failure[i]}")
     if temperatures_C is not None:
-        b = s.names.index(seawater)
         fractions = fraction_for_temperature(np.asarray(temperatures_C, float) + 273.15, s.T_K[a],
                                              s.T_K[b], float(s.P_bar[a]), rule)
     mixed, q, W = mixture_samples(s, hydrothermal, seawater, fractions, db, ends.charge_imbalance, rule)

@@ -36,6 +36,18 @@ def _write_frame(frame, fmt, table_columns, note=""):
     return 0
 
 
+def _failures(names, failure):
+    """Print one line naming the samples that could not be computed; exit status 1 if any."""
+    bad = np.flatnonzero(np.asarray(failure, dtype=object) != "")
+    if bad.size == 0:
+        return 0
+    listed = "; ".join(f"{names[i]}: {failure[i]}" for i in bad[:5])
+    more = f"; and {bad.size - 5} more (see the failure column)" if bad.size > 5 else ""
+    print(f"redoxgibbs: {bad.size} of {len(names)} samples could not be computed ({listed}{more}); "
+          "the others were", file=sys.stderr)
+    return 1
+
+
 def _stdstate(args):
     reaction = Reaction(args.reaction)
     temperatures = _number_list(args.temperature, "temperature")
@@ -61,11 +73,14 @@ def _speciation(args):
     result = speciate(args.samples, args.activity_model, pH_from_charge_balance=args.pH_from_charge_balance)
     if args.format == "csv":
         sys.stdout.write(result.to_long_frame().to_csv(index=False, float_format="%.6g"))
-        return 0
+        return _failures(result.samples, result.failure)
     summary = result.summary_frame()
     long = result.to_long_frame()
     print(f"Activity model: {result.activity_model}\n")
     for i, row in summary.iterrows():
+        if row.failure:
+            print(f"{row['sample']}: not computed: {row.failure}")
+            continue
         flag = "  (beyond the activity model's ionic-strength range)" if row.beyond_activity_model_validity else ""
         if row.density_estimated:
             flag += "  (per-litre amounts converted with an estimated density)"
@@ -79,7 +94,7 @@ def _speciation(args):
         if si:
             print("    saturation index: " + ", ".join(si))
     print("\n" + SCREENING_NOTE)
-    return 0
+    return _failures(result.samples, result.failure)
 
 
 def _insitu(args):
@@ -93,8 +108,9 @@ def _insitu(args):
     frame = energetics.to_frame(per_species)
     cols = ["sample", "reaction", "T_C", "dGr_kJ_per_mol", "dGr_kJ_per_mol_e",
             *[f"dGr_kJ_per_mol_{s}" for s in per_species], "limiting_species",
-            "energy_density_J_per_kg", "missing_species"]
-    return _write_frame(frame, args.format, cols, "energy_density_J_per_kg is per kg of water. ")
+            "energy_density_J_per_kg", "missing_species", "flags", "failure"]
+    _write_frame(frame, args.format, cols, "energy_density_J_per_kg is per kg of water. ")
+    return _failures(result.samples, result.failure)
 
 
 def _reactions(args):
@@ -130,9 +146,10 @@ def _assess(args):
     from .assess import run_assessment
     from .report import write_outputs
 
-    report = write_outputs(run_assessment(args.scenario, quiet=args.quiet), args.out)
+    assessment = run_assessment(args.scenario, quiet=args.quiet)
+    report = write_outputs(assessment, args.out)
     print(f"report: {report}")
-    return 0
+    return _failures(assessment.speciation.samples, assessment.speciation.failure)
 
 
 def _demo(args):
@@ -142,9 +159,10 @@ def _demo(args):
     from .report import write_outputs
 
     scenario = resources.files("redoxgibbs.examples") / "demo_scenario.toml"
-    report = write_outputs(run_assessment(str(scenario), quiet=args.quiet), args.out)
+    assessment = run_assessment(str(scenario), quiet=args.quiet)
+    report = write_outputs(assessment, args.out)
     print(f"demo report: {report.resolve()}")
-    return 0
+    return _failures(assessment.speciation.samples, assessment.speciation.failure)
 
 
 def _mix(args):
@@ -161,8 +179,10 @@ def _mix(args):
     if args.plot:
         mixing_figure(frame, args.plot)
     cols = ["hydrothermal_fraction", "T_C", "pH_insitu", "reaction", "dGr_kJ_per_mol",
-            "energy_J_per_kg_mixed_fluid", "energy_J_per_kg_hydrothermal_fluid"]
-    return _write_frame(frame, args.format, cols)
+            "energy_J_per_kg_mixed_fluid", "energy_J_per_kg_hydrothermal_fluid", "failure"]
+    _write_frame(frame, args.format, cols)
+    mixtures = frame.drop_duplicates("sample")
+    return _failures(mixtures["sample"].tolist(), mixtures["failure"].to_numpy())
 
 
 def _sweep(args):

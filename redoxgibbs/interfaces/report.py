@@ -181,7 +181,10 @@ def write_outputs(assessment, out_dir):
     sc = assessment.scenario
     summary = assessment.speciation.summary_frame()
     summary.insert(0, "site", sc.samples["site"].to_numpy())
-    flagged = first[(first["flags"] != "") | (first["missing_species"] != "") | first["below_minimum_energy"]]
+    flagged = first[(first["flags"] != "") | (first["missing_species"] != "") | first["below_minimum_energy"]
+                    | (first["failure"] != "")]
+    flag_columns = ["site", "sample", "reaction", "dGr_kJ_per_mol", "below_minimum_energy", "missing_species",
+                    "flags", "failure"]
     sources = _sources(assessment)
     assumptions = [
         f"Activity model: {assessment.speciation.activity_model} (samples beyond its ionic-strength "
@@ -227,9 +230,9 @@ figure {{ margin: 1.5em 0; }} .plot svg {{ max-width: 100%; height: auto; }}
 <h2>Figures</h2>
 {figure_html}
 <h2>Validity flags</h2>
-<p>Rows with standard-state caveats, species without a measured activity, or |dGr| below the
-minimum usable energy.</p>
-{_table_html(flagged[['site', 'sample', 'reaction', 'dGr_kJ_per_mol', 'below_minimum_energy', 'missing_species', 'flags']])}
+<p>Rows with standard-state or activity-model caveats, species without a measured activity, |dGr|
+below the minimum usable energy, or samples that could not be computed (with the reason).</p>
+{_table_html(flagged[flag_columns])}
 <h2>Data sources and verification ledger of the species used</h2>
 {_table_html(sources, max_rows=500)}
 <h2>Cautions</h2>
@@ -240,10 +243,12 @@ checked against outside references in the project's tests; see DEVELOPERS.md for
     (out / "report.html").write_text(page)
     md = [f"# {sc.title}", "", f"> {SCREENING_NOTE}", "", "## Assumptions", ""]
     md += [f"- {a}" for a in assumptions]
+    md += ["", "## Speciation", "", summary.to_markdown(index=False, floatfmt=".4g")]
     md += ["", "## Most energy per kilogram of fluid, per sample", "",
            ranking.groupby(["site", "sample"]).head(5).to_markdown(index=False, floatfmt=".4g"), "",
            "## Figures", ""]
     md += [f"![{k}]({k}.png)" for k in svgs]
+    md += ["", "## Validity flags", "", flagged[flag_columns].to_markdown(index=False, floatfmt=".4g")]
     md += ["", "## Data sources and verification ledger", "", sources.to_markdown(index=False), ""]
     (out / "report.md").write_text("\n".join(md))
     return out / "report.html"

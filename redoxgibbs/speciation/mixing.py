@@ -15,7 +15,7 @@ from ..errors import InputError
 from ..water.iapws95 import M_WATER_KG_PER_MOL, water_state
 from .samples import SampleSet
 
-__all__ = ["mixture_samples", "mixing_temperature_enthalpy", "fraction_for_temperature"]
+__all__ = ["mixture_samples", "mixing_temperature_enthalpy", "fraction_for_temperature", "end_member_row"]
 
 def _specific_enthalpy_J_kg(T_K, P_bar):
     return water_state(T_K, P_bar).H_J_mol / M_WATER_KG_PER_MOL
@@ -43,12 +43,13 @@ def fraction_for_temperature(T_mix, T_a, T_b, P_bar, rule="enthalpy"):
         raise InputError(f"mixing: temperatures must lie between the end-members' "
                          f"({lo - 273.15:.4g} and {hi - 273.15:.4g} degC)")
     if rule == "linear":
-        return (T_mix - T_b) / (T_a - T_b)
+        return np.clip((T_mix - T_b) / (T_a - T_b), 0.0, 1.0)
     h_a, h_b = _specific_enthalpy_J_kg(T_a, P_bar), _specific_enthalpy_J_kg(T_b, P_bar)
     h = _specific_enthalpy_J_kg(T_mix, np.full(T_mix.shape, P_bar))
-    return (h - h_b) / (h_a - h_b)
+    # an end-member's own temperature gives f = 0 or 1 up to rounding of the enthalpies
+    return np.clip((h - h_b) / (h_a - h_b), 0.0, 1.0)
 
-def _row(samples, name):
+def end_member_row(samples, name):
     if name not in samples.names:
         raise InputError(f"mixing: no sample called {name!r}; samples are {', '.join(samples.names)}")
     return samples.names.index(name)
@@ -62,7 +63,7 @@ def mixture_samples(samples, hydrothermal, seawater, fractions, db, charge_imbal
     if samples.gas_fugacity_bar:
         raise InputError("mixing: end-members with gas-fugacity columns cannot be mixed by mass; "
                          "give dissolved totals instead")
-    a, b = _row(samples, hydrothermal), _row(samples, seawater)
+    a, b = end_member_row(samples, hydrothermal), end_member_row(samples, seawater)
     f = np.asarray(fractions, float)
     if np.any((f < 0) | (f > 1)):
         raise InputError("mixing: fractions must lie between 0 and 1")

@@ -57,9 +57,25 @@ class SampleSet:
     density_kg_L: np.ndarray
     density_estimated: np.ndarray
     notes: list = field(default_factory=list)
+    problems: np.ndarray = None    # per sample: why it cannot be computed ('' where it can)
+
+    def __post_init__(self):
+        if self.problems is None:
+            self.problems = np.full(len(self.names), "", dtype=object)
 
     def __len__(self):
         return len(self.names)
+
+    def subset(self, keep):
+        """The samples where the boolean mask ``keep`` is set, as a new SampleSet."""
+        idx = np.flatnonzero(keep)
+        pick = lambda a: a[idx]
+        return SampleSet(
+            names=[self.names[i] for i in idx], T_K=pick(self.T_K), P_bar=pick(self.P_bar),
+            pH=pick(self.pH), pH_T_K=pick(self.pH_T_K), totals={k: pick(v) for k, v in self.totals.items()},
+            gas_fugacity_bar={k: pick(v) for k, v in self.gas_fugacity_bar.items()},
+            density_kg_L=pick(self.density_kg_L), density_estimated=pick(self.density_estimated),
+            notes=list(self.notes), problems=pick(self.problems))
 
     def water_fraction_and_density(self, db):
         """kg water per kg solution and density [kg/L] (measured, or estimated as on reading)."""
@@ -80,6 +96,9 @@ def _numeric(frame, column, row_labels, allow_blank=True, low=None, high=None, w
     if bad.any():
         i = int(np.flatnonzero(bad)[0])
         raise InputError(f"row {row_labels[i]}, column {column!r}: {raw.iloc[i]!r} is not a number")
+    if np.isinf(values).any():
+        i = int(np.flatnonzero(np.isinf(values))[0])
+        raise InputError(f"row {row_labels[i]}, column {column!r}: {raw.iloc[i]!r} is not a finite {what}")
     if not allow_blank and np.isnan(values).any():
         i = int(np.flatnonzero(np.isnan(values))[0])
         raise InputError(f"row {row_labels[i]}, column {column!r}: a {what} is required")
@@ -91,6 +110,14 @@ def _numeric(frame, column, row_labels, allow_blank=True, low=None, high=None, w
                 raise InputError(f"row {row_labels[i]}, column {column!r}: {values[i]:g} is {word} "
                                  f"the allowed {what} range limit {limit:g}")
     return values
+
+
+def _names_a_species(name, db):
+    try:
+        db.resolve(name)
+        return True
+    except UnknownSpeciesError:
+        return False
 
 
 def _pressures(frame, labels, T_K):
@@ -111,27 +138,85 @@ def _pressures(frame, labels, T_K):
     return P
 
 
-def _check_states(T_K, P_bar, labels, t_col):
-    """Refuse, by row, states outside the engine's range (ice and vapour are refused later)."""
+def _state_problems(T_K, P_bar, t_col):
+    """Per row, why the state lies outside the engine's range ('' where it does not); ice and
+    vapour are screened by the speciation against the water equation of state."""
     from ..species.properties import VALIDITY
 
-    for bad, what in ((T_K > VALIDITY["T_max_K"], f"{t_col!r}: above 1000 degC"),
-                      (T_K < VALIDITY["T_min_K"], f"{t_col!r}: below -20 degC, colder than any liquid water here"),
-                      (P_bar > VALIDITY["P_max_bar"], "'P [bar]': above 5000 bar")):
-        if bad.any():
-            i = int(np.flatnonzero(bad)[0])
-            raise InputError(f"row {labels[i]}, column {what}, the range of the revised HKF "
-                             "equations; give a state within 0-1000 degC and up to 5000 bar")
+    problems = np.full(T_K.shape, "", dtype=object)
+    for bad, what in ((P_bar > VALIDITY["P_max_bar"], "'P [bar]' above 5000 bar"),
+                      (T_K < VALIDITY["T_min_K"], f"{t_col!r} below -20 degC, colder than any liquid water here"),
+                      (T_K > VALIDITY["T_max_K"], f"{t_col!r} above 1000 degC")):
+        problems[bad] = (f"outside validity: {what}, the range of the revised HKF equations; give a "
+                         "state within -20 to 1000 degC and up to 5000 bar")
+    return problems
+
+
+def _read_csv(path):
+    """The CSV at ``path``, or one of the project's errors naming the file problem."""
+    try:
+        return pd.read_csv(path, skipinitialspace=True)
+    except FileNotFoundError:
+        raise InputError(f"samples: file {path} does not exist") from None
+    except IsADirectoryError:
+        raise InputError(f"samples: {path} is a folder; give the sample table's CSV file") from None
+    except pd.errors.EmptyDataError:
+        raise InputError(f"samples: file {path} is empty; give a header row and one row per sample") from None
+    except UnicodeDecodeError:
+        raise InputError(f"samples: file {path} is not UTF-8 text; save it as CSV (UTF-8)") from None
+    except (pd.errors.ParserError, ValueError) as err:
+        raise InputError(f"samples: file {path} is not a readable CSV table ({err})") from None
+
+
+def _csv_header(path):
+    """The header cells as written (pandas renames repeated names, so read them directly)."""
+    import csv
+
+    with open(path, newline="", encoding="utf-8") as f:
+        return [c.strip() for c in next(csv.reader(f), [])]
+
+
+def _check_columns(columns):
+    """Refuse repeated columns, and headers that look like 'NAME [UNIT]' but do not parse."""
+    seen = set()
+    for c in columns:
+        if c in seen:
+            raise InputError(f"column {c!r} is given twice; keep one")
+        seen.add(c)
+        if ("[" in c or "]" in c) and parse_column_header(c)[1] is None:
+            raise InputError(f"column {c!r}: cannot read the header; write it as NAME [UNIT], "
+                             "e.g. 'Na+ [mmol/kg]'")
+
+
+def _sample_names(column):
+    """Sample names as text; blank or repeated names are refused by row."""
+    names = ["" if pd.isna(v) else str(v).strip() for v in column]
+    seen = {}
+    for i, name in enumerate(names):
+        if not name:
+            raise InputError(f"row {i + 1} (counting data rows from 1), column 'sample': the sample "
+                             "name is blank; give every sample a name")
+        if name in seen:
+            raise InputError(f"rows {seen[name] + 1} and {i + 1}, column 'sample': the name {name!r} "
+                             "is used twice; give every sample its own name")
+        seen[name] = i
+    return names
 
 
 def read_samples(source, db=None):
     """Read a sample table (CSV path or DataFrame) into a :class:`SampleSet`, validating each cell."""
     db = default_database() if db is None else db
-    frame = pd.read_csv(source, skipinitialspace=True) if not isinstance(source, pd.DataFrame) else source.copy()
+    if isinstance(source, pd.DataFrame):
+        frame = source.copy()
+        columns = [str(c).strip() for c in frame.columns]
+    else:
+        frame = _read_csv(source)
+        columns = _csv_header(source)
     frame.columns = [str(c).strip() for c in frame.columns]
+    _check_columns(columns)
     if "sample" not in frame.columns:
         raise InputError("samples: a 'sample' column (the sample names) is required")
-    labels = [str(s) for s in frame["sample"]]
+    labels = _sample_names(frame["sample"])
     headers = {c: parse_column_header(c) for c in frame.columns}
     t_col = next((c for c, (n, u) in headers.items() if n == "T"), None)
     if t_col is None:
@@ -139,7 +224,7 @@ def read_samples(source, db=None):
     T = _numeric(frame, t_col, labels, allow_blank=False, what="temperature")
     T_K = to_unit(T, headers[t_col][1] or "degC", "kelvin", f"column {t_col!r}")
     P = _pressures(frame, labels, T_K)
-    _check_states(T_K, P, labels, t_col)
+    problems = _state_problems(T_K, P, t_col)
     pH = _numeric(frame, "pH", labels, low=-2.0, high=16.0, what="pH") if "pH" in frame else np.full(len(frame), np.nan)
     pht_col = next((c for c, (n, u) in headers.items() if n == "pH T"), None)
     pH_T_K = T_K.copy()
@@ -147,7 +232,7 @@ def read_samples(source, db=None):
         given = _numeric(frame, pht_col, labels, what="temperature")
         has = ~np.isnan(given)
         pH_T_K[has] = to_unit(given[has], headers[pht_col][1] or "degC", "kelvin", f"column {pht_col!r}")
-    totals_raw, gases, reserved = {}, {}, {"sample", "pH", t_col, pht_col}
+    totals_raw, gases, reserved, columns_of = {}, {}, {"sample", "pH", t_col, pht_col}, {}
     density = np.full(len(frame), np.nan)
     for col, (name, unit) in headers.items():
         if col in reserved or name == "P":
@@ -157,6 +242,8 @@ def read_samples(source, db=None):
                 to_unit(1.0, unit or "g/cm3", "kg/L", f"column {col!r}")
             continue
         if unit is None:
+            if _names_a_species(name, db):
+                raise InputError(f"column {col!r}: give the amount's unit in brackets, e.g. '{name} [mmol/kg]'")
             continue  # free-text or extra columns are ignored
         try:
             species = db.resolve(name)
@@ -182,9 +269,35 @@ def read_samples(source, db=None):
         if species in totals_raw:
             raise InputError(f"column {col!r}: {species} is given twice")
         totals_raw[species] = (basis, mol, molar_mass_g_mol(rec.elements) / 1000.0)
+        columns_of[species] = col
+    _refuse_impossible_amounts(totals_raw, columns_of, labels)
     totals, estimated = _to_molality(totals_raw, density)
     return SampleSet(names=labels, T_K=T_K, P_bar=P, pH=pH, pH_T_K=pH_T_K, totals=totals,
-                     gas_fugacity_bar=gases, density_kg_L=density, density_estimated=estimated)
+                     gas_fugacity_bar=gases, density_kg_L=density, density_estimated=estimated,
+                     problems=problems)
+
+
+#: Largest amount of one solute accepted [mol per kg of water, of solution or per litre]: above
+#: the solubility of the most soluble salts (about 20 mol/kg), so larger values are typing errors.
+MAX_AMOUNT_MOL = 50.0
+
+
+def _refuse_impossible_amounts(totals_raw, columns_of, labels):
+    """Refuse, by cell, amounts no aqueous fluid holds, and per-kg-solution or per-litre amounts
+    whose solutes would weigh as much as the solution itself."""
+    for species, (basis, mol, _) in totals_raw.items():
+        big = mol > MAX_AMOUNT_MOL
+        if big.any():
+            i = int(np.flatnonzero(big)[0])
+            raise InputError(f"row {labels[i]}, column {columns_of[species]!r}: {mol[i]:.4g} mol per kg or "
+                             f"litre is more than any fluid dissolves (limit {MAX_AMOUNT_MOL:g}); check the "
+                             "value and its unit")
+    mass = sum(np.nan_to_num(mol) * M for basis, mol, M in totals_raw.values() if basis != "per_kg_water")
+    heavy = np.asarray(mass) >= 0.9
+    if np.any(heavy):
+        i = int(np.flatnonzero(heavy)[0])
+        raise InputError(f"row {labels[i]}: the solutes given per kg of solution or per litre weigh "
+                         f"{float(np.asarray(mass)[i]):.3g} kg, as much as the solution; check the amounts and units")
 
 
 def _to_molality(totals_raw, density_kg_L):

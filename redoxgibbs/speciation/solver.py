@@ -60,6 +60,7 @@ class SpeciationResult:
     beyond_model_validity: np.ndarray   # ionic strength above the model's stated limit, (n,)
     present: np.ndarray                 # bool (n, n_species): built only from measured components
     density_estimated: np.ndarray       # per-litre units converted with an estimated density, (n,)
+    failure: np.ndarray = None          # per sample: why it could not be computed ('' if it was)
 
     def pool_molality(self, species):
         """Amount of ``species`` the sample's pools allow [mol/kg water], (n,).
@@ -88,15 +89,29 @@ class SpeciationResult:
         with np.errstate(divide="ignore"):
             return np.where(self.present, np.log10(np.where(self.present, self.molality, 1.0)) + self.log10_gamma, -np.inf)
 
+    def sample_flags(self):
+        """Per sample, the comma-joined validity flags of the speciation ('' where none)."""
+        flags = np.full(len(self.samples), "", dtype=object)
+        flags[self.beyond_model_validity] = f"ionic_strength_beyond_{self.activity_model}_range"
+        return flags
+
     def to_long_frame(self):
-        """One row per sample x species, units in the column names."""
+        """One row per sample x species, units in the column names; a sample that could not be
+        computed keeps one row, with its reason in ``failure``."""
         n, s = self.molality.shape
         frame = pd.DataFrame({
             "sample": np.repeat(self.samples, s), "species": np.tile(self.species, n),
             "molality_mol_per_kg": self.molality.ravel(), "log10_gamma": self.log10_gamma.ravel(),
             "log10_activity": self.log10_activity.ravel(),
-            "ionic_strength_mol_per_kg": np.repeat(self.ionic_strength, s)})
-        return frame[self.present.ravel()].reset_index(drop=True)
+            "ionic_strength_mol_per_kg": np.repeat(self.ionic_strength, s),
+            "flags": np.repeat(self.sample_flags(), s), "failure": ""})
+        keep = self.present.ravel()
+        failed = np.flatnonzero(self.failure != "")
+        first_row = np.zeros(n * s, bool)
+        first_row[failed * s] = True
+        frame.loc[first_row, ["species", "failure"]] = np.column_stack(
+            [np.full(failed.size, ""), self.failure[failed]])
+        return frame[keep | first_row].reset_index(drop=True)
 
     def summary_frame(self):
         return pd.DataFrame({
@@ -104,7 +119,8 @@ class SpeciationResult:
             "pH_insitu": self.pH, "ionic_strength_mol_per_kg": self.ionic_strength,
             "charge_imbalance_eq_per_kg": self.charge_imbalance,
             "beyond_activity_model_validity": self.beyond_model_validity,
-            "density_estimated": self.density_estimated, "newton_iterations": self.iterations})
+            "density_estimated": self.density_estimated, "newton_iterations": self.iterations,
+            "flags": self.sample_flags(), "failure": self.failure})
 
 
 def _log_k(system, db, T_K, P_bar, water, gas_masters):
@@ -147,8 +163,7 @@ def _newton(system, model, logK, A, B, T_K, totals, fixed_log_a, log_aH, charge_
     measured = np.isfinite(totals) & (totals > 0)   # zero or blank: nothing to balance
     fixed = np.isfinite(fixed_log_a)
     if start is None:
-        x = np.where(measured, np.log10(np.where(measured, totals, 1.0)), ABSENT_LOG_M)
-        x = np.column_stack([x, np.full(n, -7.0)])
+        x = _dominant_species_start(system, logK, totals, measured, log_aH)
     else:
         x = start[0].copy()
     x[:, :k] = np.where(fixed, fixed_log_a, x[:, :k])
@@ -167,6 +182,9 @@ def _newton(system, model, logK, A, B, T_K, totals, fixed_log_a, log_aH, charge_
     m = np.zeros((n, len(system.species)))
     iterations = np.zeros(n, dtype=int)
     active = np.arange(n)
+    converged = np.ones(n, bool)
+    relax = np.ones(n)                  # fraction of each gamma update taken (halved on oscillation)
+    last_change = np.full(n, np.inf)
     abs_rows = np.abs(rows)
     # which unknowns have an equation is fixed per sample: group samples by that pattern once
     codes = frozen.astype(np.int64) @ (1 << np.arange(k + 1))
@@ -201,6 +219,15 @@ def _newton(system, model, logK, A, B, T_K, totals, fixed_log_a, log_aH, charge_
         lg_new = model.log10_gamma(system.species, z, I_now, T_K[idx], A[idx], B[idx])
         aw_new = model.log10_water_activity(system.species, z, ma, I_now, T_K[idx], A[idx], B[idx])
         changed = np.abs(lg_new - lg[idx]).max(axis=1)
+        # concentrated solutions (pH near 0 or 14, brines) can make the plain update of gamma
+        # oscillate: take half the share of it wherever the change grew, and a larger share again
+        # wherever it shrinks fast
+        f = np.where(changed > last_change[idx], 0.5 * relax[idx],
+                     np.where(changed < 0.5 * last_change[idx], np.minimum(1.0, 1.5 * relax[idx]), relax[idx]))
+        f = np.maximum(f, 1.0 / 64)
+        relax[idx], last_change[idx] = f, changed
+        lg_new = lg[idx] + f[:, None] * (lg_new - lg[idx])
+        aw_new = log_aw[idx] + f * (aw_new - log_aw[idx])
         lg[idx], log_aw[idx] = lg_new, aw_new
         ma = molalities(idx, lg_new, aw_new)
         m[idx] = ma
@@ -220,9 +247,9 @@ def _newton(system, model, logK, A, B, T_K, totals, fixed_log_a, log_aH, charge_
             if not free.any():
                 continue
             sel = slice(None) if groups.size == 1 or (groups == p).all() else np.flatnonzero(groups == p)
-            f = int(free.sum())
-            J = (ma[sel] @ pattern_W[p]).reshape(-1, f, f) / scale[sel][:, free, None]
-            sub = np.linalg.solve(J, -R[sel][:, free, None])[..., 0]
+            nf = int(free.sum())
+            J = (ma[sel] @ pattern_W[p]).reshape(-1, nf, nf) / scale[sel][:, free, None]
+            sub = _solve_or_least_squares(J, -R[sel][:, free, None])[..., 0]
             if isinstance(sel, slice):
                 step[:, free] = sub
             else:
@@ -230,9 +257,38 @@ def _newton(system, model, logK, A, B, T_K, totals, fixed_log_a, log_aH, charge_
         x[active] += np.clip(step, -MAX_STEP, MAX_STEP)
         iterations[active] += 1
     else:
-        raise InputError(f"speciation did not converge in {MAX_ITERATIONS} iterations for sample rows "
-                         f"{active[:5].tolist()}; check the totals and pH of these samples")
-    return m, lg, ionic_strength(m, z), log_aw, x, iterations
+        converged[active] = False
+    return m, lg, ionic_strength(m, z), log_aw, x, iterations, converged
+
+
+def _solve_or_least_squares(J, b):
+    """np.linalg.solve over a stack, falling back to the pseudo-inverse when a Jacobian is
+    singular (a component whose species all vanish): the step is then the least-squares one."""
+    try:
+        return np.linalg.solve(J, b)
+    except np.linalg.LinAlgError:
+        with np.errstate(all="ignore"):
+            return np.nan_to_num(np.linalg.pinv(J) @ b)
+
+
+def _dominant_species_start(system, logK, totals, measured, log_aH):
+    """Starting log10 molalities of the masters: each master at the value where the largest of
+    its single-component species (the master itself, its hydrolysis or protonation species) holds
+    the whole total, at the given pH (pH 7 where it is to be solved). Species built from several
+    components and activity coefficients are left out of this first guess."""
+    n, k = totals.shape
+    log_aH = np.where(np.isfinite(log_aH), log_aH, -7.0)
+    x = np.full((n, k + 1), ABSENT_LOG_M)
+    x[:, k] = log_aH
+    own = (system.nu != 0).sum(axis=1) == 1
+    with np.errstate(divide="ignore"):
+        log_total = np.log10(np.where(measured, totals, 1.0))
+    for j in range(k):
+        sp = np.flatnonzero(own & (system.nu[:, j] > 0))
+        nu = system.nu[sp, j]
+        guess = (log_total[:, j, None] - logK[:, sp] - system.nu_H[sp] * log_aH[:, None]) / nu
+        x[:, j] = np.where(measured[:, j], guess.min(axis=1), ABSENT_LOG_M)
+    return x
 
 
 def _components(samples, db):
@@ -267,21 +323,21 @@ def _presence(system, totals, gas_masters):
     return present, nonzero, unmeasured, zero
 
 
-def _refuse_frozen_samples(samples, log10_aw):
-    """Refuse, by name, samples colder than their own freezing point (only samples below the
-    triple-point temperature can be frozen: a dissolved salt only lowers the freezing point)."""
-    cold = np.flatnonzero(samples.T_K < T_TRIPLE_K)
+def _frozen_samples(samples, log10_aw, computed):
+    """Per sample, 'frozen: ...' where it is colder than its own freezing point ('' elsewhere).
+    Only computed samples below the triple-point temperature are checked: a solute only lowers
+    the freezing point."""
+    out = np.full(len(samples), "", dtype=object)
+    cold = np.flatnonzero(computed & (samples.T_K < T_TRIPLE_K))
     if cold.size == 0:
-        return
+        return out
     T_freeze = freezing_temperature(samples.P_bar[cold], log10_aw[cold] * LN10)
-    frozen = samples.T_K[cold] < T_freeze - 0.005
-    if frozen.any():
-        i = cold[np.flatnonzero(frozen)[0]]
-        tf = T_freeze[np.flatnonzero(frozen)[0]]
-        raise OutOfValidityError(
-            f"row {samples.names[i]}: the fluid is frozen at {samples.T_K[i] - 273.15:.4g} degC and "
-            f"{samples.P_bar[i]:.6g} bar: its freezing point there is {tf - 273.15:.4g} degC (ice Ih "
-            f"against its water activity, {10 ** log10_aw[i]:.5f}); give a warmer temperature")
+    for i, tf in zip(cold, T_freeze):
+        if samples.T_K[i] < tf - 0.005:
+            out[i] = (f"frozen: at {samples.T_K[i] - 273.15:.4g} degC and {samples.P_bar[i]:.6g} bar the "
+                      f"fluid's freezing point is {tf - 273.15:.4g} degC (ice Ih against its water "
+                      f"activity, {10 ** log10_aw[i]:.5f}); give a warmer temperature")
+    return out
 
 
 def species_in_samples(samples, db=None):
@@ -295,26 +351,28 @@ def species_in_samples(samples, db=None):
     return {name for name, there in zip(system.species, nonzero.any(axis=0)) if there}
 
 
-def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, db=None,
-             charge_balance_target=None, water=water_state):
-    """Speciate a sample table (path, DataFrame or :class:`SampleSet`) at in-situ T and P.
+def _water_problems(T_K, P_bar, water):
+    """Per state, the water layer's refusal ('' where water is liquid). The common case, all
+    liquid, costs one evaluation; only when something is refused are the distinct states tried
+    one at a time to name which."""
+    problems = np.full(T_K.shape, "", dtype=object)
+    try:
+        water(T_K, P_bar, caloric=False)
+        return problems
+    except OutOfValidityError:
+        pass
+    pairs, inverse = np.unique(np.stack([T_K, P_bar], axis=1), axis=0, return_inverse=True)
+    for u, (t, p) in enumerate(pairs):
+        try:
+            water(np.array([t]), np.array([p]), caloric=False)
+        except OutOfValidityError as err:
+            problems[inverse.ravel() == u] = f"outside validity: {err}"
+    return problems
 
-    pH: given at in-situ T; or measured at ``pH T`` and carried to in-situ T, P by re-speciating at
-    constant totals and charge balance; or, when missing and ``pH_from_charge_balance`` is set,
-    solved from charge balance: sum z m = ``charge_balance_target`` [eq/kg water] (default 0; a
-    mixture carries its end-members' imbalance, i.e. their alkalinity). ``water``: the exact
-    water path or a :class:`~redoxgibbs.water.table.WaterTable` for the in-situ states (the
-    states where pH was measured always take the exact path).
-    """
-    db = default_database() if db is None else db
-    s = samples if isinstance(samples, SampleSet) else read_samples(samples, db=db)
-    model = activity_model(activity_model_name)
-    masters, gas_masters, totals = _components(s, db)
-    system = build_system(masters, db)
-    missing_pH = np.isnan(s.pH)
-    if missing_pH.any() and not pH_from_charge_balance:
-        i = int(np.flatnonzero(missing_pH)[0])
-        raise InputError(f"row {s.names[i]}, column 'pH': no pH given; give one or ask for pH from charge balance")
+
+def _solve_samples(s, totals, system, masters, gas_masters, model, charge_target, solve_H,
+                   shifted, water, db):
+    """Both speciation stages for samples that can be computed; returns arrays for them."""
     n, k = len(s), len(masters)
 
     def stage(T_K, P_bar, log_aH, charge_target, solve_H, water=water, start=None):
@@ -329,36 +387,89 @@ def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, 
         return out, logK_min
 
     # stage 1: where pH was measured at another temperature, speciate there to fix the charge balance
-    charge_target = np.zeros(n) if charge_balance_target is None else np.asarray(charge_balance_target, float)
     iterations = np.zeros(n, dtype=int)
-    shifted = ~missing_pH & (np.abs(s.pH_T_K - s.T_K) > 1e-9)
+    converged = np.ones(n, bool)
     start = None
     if shifted.any():
         P_lab = psat_convention_bar(s.pH_T_K)
         # laboratory states are few and distinct: always the exact water path
-        (m, lg, I, law, x, its), _ = stage(s.pH_T_K, P_lab, -s.pH, np.zeros(n), np.zeros(n, bool),
-                                           water=water_state)
+        (m, lg, I, law, x, its, ok), _ = stage(s.pH_T_K, P_lab, -s.pH, np.zeros(n), np.zeros(n, bool),
+                                               water=water_state)
         charge_target = np.where(shifted, m @ system.charge, charge_target)
         iterations += np.where(shifted, its, 0)
+        converged &= ok | ~shifted
         start = (x, lg, law)   # the in-situ solve starts from the laboratory one
-    solve_H = missing_pH | shifted
-    (m, lg, I, law, x, its), logK_min = stage(s.T_K, s.P_bar, np.where(solve_H, np.nan, -s.pH),
-                                              charge_target, solve_H, start=start)
-    iterations += its
-    xH = x[:, k]
+    (m, lg, I, law, x, its, ok), logK_min = stage(s.T_K, s.P_bar, np.where(solve_H, np.nan, -s.pH),
+                                                  charge_target, solve_H, start=start)
+    return m, lg, I, law, x[:, k], iterations + its, converged & ok, logK_min
+
+
+def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, db=None,
+             charge_balance_target=None, water=water_state):
+    """Speciate a sample table (path, DataFrame or :class:`SampleSet`) at in-situ T and P.
+
+    pH: given at in-situ T; or measured at ``pH T`` and carried to in-situ T, P by re-speciating at
+    constant totals and charge balance; or, when missing and ``pH_from_charge_balance`` is set,
+    solved from charge balance: sum z m = ``charge_balance_target`` [eq/kg water] (default 0; a
+    mixture carries its end-members' imbalance, i.e. their alkalinity). ``water``: the exact
+    water path or a :class:`~redoxgibbs.water.table.WaterTable` for the in-situ states (the
+    states where pH was measured always take the exact path).
+
+    Every sample has an outcome: a sample that cannot be computed (a state outside the engine's
+    range, water frozen or vapour, no convergence) keeps NaN values and its reason in
+    ``failure``; the others are computed as usual.
+    """
+    db = default_database() if db is None else db
+    s = samples if isinstance(samples, SampleSet) else read_samples(samples, db=db)
+    model = activity_model(activity_model_name)
+    masters, gas_masters, totals = _components(s, db)
+    system = build_system(masters, db)
+    missing_pH = np.isnan(s.pH)
+    if missing_pH.any() and not pH_from_charge_balance:
+        i = int(np.flatnonzero(missing_pH)[0])
+        raise InputError(f"row {s.names[i]}, column 'pH': no pH given; give one or ask for pH from charge balance")
+    n, k = len(s), len(masters)
+    charge_target = np.zeros(n) if charge_balance_target is None else np.asarray(charge_balance_target, float)
+    shifted = ~missing_pH & (np.abs(s.pH_T_K - s.T_K) > 1e-9)
+    failure = s.problems.copy()
+    todo = failure == ""
+    failure[todo] = _water_problems(s.T_K[todo], s.P_bar[todo], water_state)
+    lab = todo & shifted & (failure == "")
+    if lab.any():
+        lab_problems = _water_problems(s.pH_T_K[lab], psat_convention_bar(s.pH_T_K[lab]), water_state)
+        failure[lab] = np.where(lab_problems != "", "pH temperature: " + lab_problems.astype(str), "")
+    ok = failure == ""
+    m = np.full((n, len(system.species)), np.nan)
+    lg, I, law, pH = m.copy(), np.full(n, np.nan), np.full(n, np.nan), np.full(n, np.nan)
+    iterations = np.zeros(n, dtype=int)
+    logK_min = np.full((n, len(system.minerals)), np.nan)
+    if ok.any():
+        sub = s if ok.all() else s.subset(ok)
+        out = _solve_samples(sub, totals[ok], system, masters, gas_masters, model, charge_target[ok],
+                             (missing_pH | shifted)[ok], shifted[ok], water, db)
+        m[ok], lg[ok], I[ok], law[ok], xH, iterations[ok], converged, logK_min[ok] = out
+        pH[ok] = -xH
+        lost = np.flatnonzero(ok)[~converged]
+        failure[lost] = (f"speciation did not converge in {MAX_ITERATIONS} iterations; check the "
+                         "totals, pH and charge balance of this sample")
+        frozen = _frozen_samples(s, law, ok)
+        failure[frozen != ""] = frozen[frozen != ""]
+    failed = failure != ""
+    for arr in (m, lg, law, I, pH, logK_min):
+        arr[failed] = np.nan
     present, nonzero, unmeasured, zero = _presence(system, totals, gas_masters)
-    m = np.where(nonzero, m, 0.0)
+    present = present & ~failed[:, None]
+    m = np.where(nonzero | failed[:, None], m, 0.0)
     positive = m[:, :k] > 0
     la = np.where(positive, np.log10(np.where(positive, m[:, :k], 1.0)), ABSENT_LOG_M) + lg[:, :k]
-    si = logK_min + la @ system.nu_min.T + law[:, None] * system.nu_w_min + xH[:, None] * system.nu_H_min
+    si = logK_min + la @ system.nu_min.T + law[:, None] * system.nu_w_min - pH[:, None] * system.nu_H_min
     mineral_ok = ~((system.nu_min[None, :, :] != 0) & (unmeasured | zero)[:, None, :]).any(axis=2)
     si = np.where(mineral_ok, si, np.nan)
-    _refuse_frozen_samples(s, law)
     return SpeciationResult(
         samples=s.names, species=system.species, T_K=s.T_K, P_bar=s.P_bar, molality=m,
-        log10_gamma=lg, ionic_strength=I, pH=-xH, charge_imbalance=m @ system.charge,
+        log10_gamma=lg, ionic_strength=I, pH=pH, charge_imbalance=m @ system.charge,
         log10_water_activity=law, totals={mn: m @ system.nu[:, j] for j, mn in enumerate(masters)},
         composition=system.nu,
         minerals=system.minerals, saturation_index=si, iterations=iterations,
         activity_model=model.name, beyond_model_validity=I > model.I_max, present=present,
-        density_estimated=s.density_estimated)
+        density_estimated=s.density_estimated, failure=failure)

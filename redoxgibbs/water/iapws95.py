@@ -268,11 +268,24 @@ def _reference_offsets():
 def _evaluate(T, P_Pa, caloric=True):
     """Rows rho, G, H, S, Cp, alpha, beta, d(alpha)/dT at 1-D arrays of distinct states (molar)."""
     rho = liquid_density_kg_m3(T, P_Pa)
+    _refuse_gas_like(T, P_Pa, rho)
     g, h, S, cp, alpha, beta = specific_properties(T, rho, caloric)
     dH, dS = _reference_offsets()
     M = M_WATER_KG_PER_MOL
     dalpha = _dalpha_dT(T, P_Pa, rho, alpha) if caloric else np.full(T.shape, np.nan)
     return np.stack([rho, g * M + dH - T * dS, h * M + dH, S * M + dS, cp * M, alpha, beta, dalpha])
+
+
+def _refuse_gas_like(T, P_Pa, rho):
+    """Refuse supercritical states at a density below the critical one: water there is a gas in
+    all but name, and neither the aqueous equations of state nor the activity models apply."""
+    gas_like = (T >= T_CRITICAL_K) & (rho < RHO_CRITICAL)
+    if np.any(gas_like):
+        i = int(np.flatnonzero(gas_like)[0])
+        raise OutOfValidityError(
+            f"T, P: water is gas-like at {T[i] - 273.15:.6g} degC, {P_Pa[i] / 1e5:.6g} bar (supercritical, "
+            f"density {rho[i] / 1000:.3g} g/cm3 below the critical {RHO_CRITICAL / 1000:.3g} g/cm3); give "
+            "a higher pressure")
 
 
 def _refuse_frozen(T, P_Pa):
