@@ -142,6 +142,14 @@ def _ledger(args):
     return 0
 
 
+def _scenario_keys(args):
+    from .schema import schema_reference
+
+    print("Scenario file keys (TOML), as checked on reading:\n")
+    print("\n".join(schema_reference()))
+    return 0
+
+
 def _assess(args):
     from .assess import run_assessment
     from .report import write_outputs
@@ -244,6 +252,8 @@ def _parser():
     led.add_argument("species", nargs="*", help="species to list (default: all)")
     led.add_argument("--format", choices=("table", "csv"), default="table")
     led.set_defaults(run=_ledger)
+    keys = sub.add_parser("scenario-keys", help="every key a scenario file may hold, its type and meaning")
+    keys.set_defaults(run=_scenario_keys)
     ass = sub.add_parser("assess", help="run a scenario file into a folder of results and a report")
     ass.add_argument("scenario", help="scenario TOML (see examples/demo_scenario.toml)")
     ass.add_argument("--out", required=True, help="output folder")

@@ -169,8 +169,8 @@ def write_outputs(assessment, out_dir):
     out.mkdir(parents=True, exist_ok=True)
     results = assessment.results
     results.to_csv(out / "results.csv", index=False)
-    first_supply = results["supply"].iloc[0]
-    first = results[results["supply"] == first_supply]
+    # each site's first supply model (results are site by site, each site's models in order)
+    first = results.drop_duplicates(subset=["sample", "reaction"], keep="first")
     units = assessment.scenario.power_units
     ranking = _rankings(first, out, units)
     svgs = _plots(first, out, units)
@@ -201,8 +201,10 @@ def write_outputs(assessment, out_dir):
         "Solids are in excess (never limiting): " + (_solid_reactions(sc.reactions) or "no reaction "
                                                       "here uses a solid") + ".",
         f"Minimum usable energy: {sc.minimum_energy_kJ:g} kJ per mol of reaction (Hoehler 2004).",
-        "Supply models: " + ("; ".join(s.describe() for s in sc.supplies) or "none given") + ".",
-        f"Per-cell requirement: {sc.cells.describe()}; cell numbers are given as a low-high range.",
+        "Supply models, per site (the figures and rankings show each site's first): " + "; ".join(
+            f"{site.name}: {', '.join(x.describe() for x in site.supplies) or 'none given'}" for site in sc.sites) + ".",
+        "Per-cell requirement, per site: " + "; ".join(f"{site.name}: {site.cells.describe()}" for site in sc.sites)
+        + "; cell numbers are given as a low-high range.",
     ]
     figure_html = "\n".join(f'<figure><div class="plot">{svg[svg.find("<svg"):]}</div>'
                             f"<figcaption>{html.escape(k.replace('_', ' '))}</figcaption></figure>"

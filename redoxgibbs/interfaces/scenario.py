@@ -1,34 +1,18 @@
-"""Scenario files (TOML) of the ``assess`` command: sites, reactions, supply and cell models.
+"""Scenario files (TOML) of the ``assess`` and ``sweep`` commands: sites, reactions, supply and cell
+models, mixing and sweeps.
 
-Schema (annotated example: examples/demo_scenario.toml):
-- ``title``, ``activity_model`` (ideal | davies | bdot), ``minimum_energy_kJ_per_mol``
-- ``[[sites]]``: ``name`` and either ``samples`` (a CSV path, relative to the scenario file) or an
-  inline ``[sites.fluid]`` table with the same columns as a sample CSV (one sample)
-- ``[reactions]``: ``catalog`` (a list of names, or "all"), ``custom`` (reaction strings),
-  ``[reactions.enumerate]`` with ``donors`` and ``acceptors`` (redox-couple names, "all", or
-  "present": the couples whose dissolved species the sites' samples contain), ``per_species``
-  (species names: results also give dGr per mole of each)
-- ``[[supply]]``: ``kind`` = flow-through | turnover | areal-flux | rate and its parameters
-- ``[units]`` (optional): ``power_per_volume`` (default "W/m3"; e.g. "nW/cm3", "uW/L") and
-  ``power_per_mass`` (default "W/kg"), the units of the power columns, named in their headers
-- ``[cells]``: ``model`` = tijhuis1993 (with ``cell_carbon_g`` = [low, high]) or basal
-  (with ``basal_W`` = [low, high])
-- ``[mixing]`` (optional): ``hydrothermal`` and ``seawater`` (sample names), ``temperatures_C`` or
-  ``fractions``, ``temperature_rule`` = enthalpy | linear
-- ``[uncertainty]`` or ``[sweep]`` (for ``redoxgibbs sweep``): ``sample`` (the base sample's
-  name), ``draws``, ``seed``, ``chunk_size``, and ``[uncertainty.inputs]`` mapping a sample
-  column to ``{distribution = "normal", mean, sd}``, ``{distribution = "lognormal", median,
-  sigma_ln}`` or ``{distribution = "uniform", low, high}``; ``[sweep.inputs]`` maps a column to a
-  list of values (their product is swept); instead of ``sample``, ``mixing = {hydrothermal =
-  NAME, seawater = NAME, temperature_rule = ...}`` sweeps the input ``"mixing:fraction"``;
-  ``water`` = exact | tabulated (interpolated water
-  properties, see redoxgibbs/water/table.py for the error bound)
+The schema (every key, its type, allowed values and meaning) is written down once, in
+:mod:`redoxgibbs.interfaces.schema`, and enforced on reading; ``redoxgibbs scenario-keys`` prints
+it, and examples/demo_scenario.toml is an annotated example. Each site's samples are read on their
+own (their own units and species names) and merged; a site may give its own ``[[sites.supply]]``
+and ``[sites.cells]``, otherwise the scenario's apply.
 """
 
 import sys
 from dataclasses import dataclass, field
 from pathlib import Path
 
+import numpy as np
 import pandas as pd
 
 from ..energetics.catalog import catalog, couples_present, enumerate_reactions, resolve_reactions
@@ -36,23 +20,34 @@ from ..energetics.insitu import DEFAULT_MINIMUM_ENERGY_KJ
 from ..energetics.power import CellRequirement, PowerUnits, Supply
 from ..errors import InputError
 from ..species.database import default_database
+from ..speciation.samples import SampleSet, merge_sample_sets, read_sample_table, read_samples
 from ..speciation.solver import species_in_samples
+from .schema import check_scenario
 
 if sys.version_info >= (3, 11):
     import tomllib
 else:  # pragma: no cover
     import tomli as tomllib
 
-__all__ = ["Scenario", "load_scenario", "sweep_spec"]
+__all__ = ["Scenario", "Site", "load_scenario", "sweep_spec"]
 
-_SUPPLY_FIELDS = {"flux_kg_per_s", "volume_m3", "tau_s", "areal_flux_mol_per_m2_yr", "thickness_m",
-                  "limiting_species", "rate_mol_per_L_s"}
+@dataclass
+class Site:
+    """A site: its name, the rows of its samples in the scenario's sample set, and its supply and
+    cell models (the scenario's defaults unless the site gives its own)."""
+
+    name: str
+    rows: slice
+    supplies: list
+    cells: CellRequirement
 
 
 @dataclass
 class Scenario:
     title: str
-    samples: pd.DataFrame          # all sites' samples, with a 'site' column
+    samples: pd.DataFrame          # every site's sample rows as written, with a 'site' column (for display)
+    sample_set: SampleSet          # the same samples read site by site (own units and species) and merged
+    sites: list                    # Site
     reactions: list                # NamedReaction
     activity_model: str
     supplies: list = field(default_factory=list)
@@ -64,25 +59,34 @@ class Scenario:
     mixing: dict = None
     raw: dict = None
 
+    def site_of_samples(self):
+        """The site name of every sample, in sample order."""
+        return np.concatenate([[s.name] * (s.rows.stop - s.rows.start) for s in self.sites])
+
 
 def _site_frame(site, folder):
-    name = site.get("name")
-    if not name:
-        raise InputError("scenario: every [[sites]] entry needs a name")
-    if "samples" in site:
-        path = (folder / site["samples"]).resolve()
-        if not path.exists():
-            raise InputError(f"scenario: site {name!r}: samples file {path} does not exist")
-        frame = pd.read_csv(path, skipinitialspace=True)
-    elif "fluid" in site:
-        frame = pd.DataFrame([{"sample": name, **site["fluid"]}])
-    else:
-        raise InputError(f"scenario: site {name!r} needs 'samples' (a CSV file) or a [sites.fluid] table")
-    frame.insert(0, "site", name)
-    return frame
+    """A site's samples as written: its CSV (relative to the scenario file) or its inline fluid."""
+    if "fluid" in site:
+        return pd.DataFrame([{"sample": site["name"], **site["fluid"]}])
+    path = (folder / site["samples"]).resolve()
+    try:
+        return read_sample_table(path)
+    except InputError as err:
+        raise InputError(f"scenario: site {site['name']!r}: {err}") from None
 
 
-def _reactions(spec, samples):
+def _supplies(specs):
+    return [Supply(**{**s, "kind": s["kind"].strip().lower()}) for s in specs]
+
+
+def _cells(spec, default=None):
+    base = default or CellRequirement()
+    return CellRequirement(model=spec.get("model", base.model),
+                           cell_carbon_g=tuple(spec.get("cell_carbon_g", base.cell_carbon_g)),
+                           basal_W=tuple(spec.get("basal_W", base.basal_W)))
+
+
+def _reactions(spec, sample_set):
     out = []
     chosen = spec.get("catalog", [])
     if chosen == "all":
@@ -94,7 +98,7 @@ def _reactions(spec, samples):
     if enum:
         present = None
         if "present" in (enum.get("donors"), enum.get("acceptors")):
-            present = couples_present(species_in_samples(samples.drop(columns=["site"])))
+            present = couples_present(species_in_samples(sample_set))
 
         def pick(value):
             return present if value == "present" else None if value in (None, "all") else list(value)
@@ -105,52 +109,60 @@ def _reactions(spec, samples):
     return out
 
 
-def load_scenario(path):
-    """Read and check a scenario TOML file."""
-    path = Path(path)
+def _read_toml(path):
     try:
-        data = tomllib.loads(path.read_text())
+        return tomllib.loads(path.read_text(encoding="utf-8"))
     except FileNotFoundError:
         raise InputError(f"scenario: file {path} does not exist") from None
+    except IsADirectoryError:
+        raise InputError(f"scenario: {path} is a folder; give the scenario's TOML file") from None
+    except UnicodeDecodeError:
+        raise InputError(f"scenario: {path} is not UTF-8 text") from None
     except tomllib.TOMLDecodeError as err:
         raise InputError(f"scenario: {path} is not valid TOML: {err}") from None
-    sites = data.get("sites") or []
-    if not sites:
-        raise InputError("scenario: at least one [[sites]] entry is needed")
-    frame = pd.concat([_site_frame(s, path.parent) for s in sites], ignore_index=True)
-    supplies = []
-    for s in data.get("supply", []):
-        unknown = set(s) - _SUPPLY_FIELDS - {"kind"}
-        if unknown:
-            raise InputError(f"scenario: supply fields {sorted(unknown)} are unknown; known: {sorted(_SUPPLY_FIELDS)}")
-        supply = Supply(**s)
-        supply.describe()
-        supplies.append(supply)
-    cells_spec = data.get("cells", {})
-    cells = CellRequirement(model=cells_spec.get("model", "tijhuis1993"),
-                            cell_carbon_g=tuple(cells_spec.get("cell_carbon_g", CellRequirement().cell_carbon_g)),
-                            basal_W=tuple(cells_spec.get("basal_W", CellRequirement().basal_W)))
-    cells.describe()
+
+
+def load_scenario(path):
+    """Read a scenario TOML file, check it against the schema (interfaces/schema.py) and read
+    each site's samples on its own."""
+    path = Path(path)
+    data = _read_toml(path)
+    check_scenario(data)
+    db = default_database()
+    frames, sets, names = [], [], []
+    for site in data["sites"]:
+        frame = _site_frame(site, path.parent)
+        try:
+            sets.append(read_samples(frame, db=db))
+        except InputError as err:
+            raise InputError(f"scenario: site {site['name']!r}: {err}") from None
+        frames.append(frame.assign(site=site["name"]))
+        names.append(site["name"])
+    sample_set = merge_sample_sets(sets, names, db)
+    frame = pd.concat(frames, ignore_index=True)
+    frame.insert(0, "site", frame.pop("site"))
+    supplies = _supplies(data.get("supply", []))
+    cells = _cells(data.get("cells", {}))
+    sites, start = [], 0
+    for site, s in zip(data["sites"], sets):
+        sites.append(Site(name=site["name"], rows=slice(start, start + len(s)),
+                          supplies=_supplies(site["supply"]) if "supply" in site else supplies,
+                          cells=_cells(site["cells"], cells) if "cells" in site else cells))
+        start += len(s)
     units = data.get("units", {})
-    unknown = set(units) - {"power_per_volume", "power_per_mass"}
-    if unknown:
-        raise InputError(f"scenario: [units] fields {sorted(unknown)} are unknown; known: power_per_volume, power_per_mass")
     power_units = PowerUnits(per_volume=units.get("power_per_volume", "W/m3"),
                              per_mass=units.get("power_per_mass", "W/kg"))
     mixing = data.get("mixing")
     if mixing is not None:
-        names = set(frame["sample"].astype(str))
         for role in ("hydrothermal", "seawater"):
-            if mixing.get(role) not in names:
-                raise InputError(f"scenario: [mixing] {role} = {mixing.get(role)!r} is not a sample name")
-        if ("temperatures_C" in mixing) == ("fractions" in mixing):
-            raise InputError("scenario: [mixing] needs either temperatures_C or fractions")
-    reaction_spec = data.get("reactions", {})
-    return Scenario(title=data.get("title", path.stem), samples=frame,
-                    reactions=_reactions(reaction_spec, frame),
-                    activity_model=data.get("activity_model", "bdot"), supplies=supplies, cells=cells,
-                    power_units=power_units,
-                    per_species=[default_database().resolve(x) for x in reaction_spec.get("per_species", [])],
+            if mixing[role] not in sample_set.names:
+                raise InputError(f"scenario: mixing.{role}: {mixing[role]!r} is not a sample name")
+    reaction_spec = data["reactions"]
+    return Scenario(title=data.get("title", path.stem), samples=frame, sample_set=sample_set, sites=sites,
+                    reactions=_reactions(reaction_spec, sample_set),
+                    activity_model=data.get("activity_model", "bdot").strip().lower(), supplies=supplies,
+                    cells=cells, power_units=power_units,
+                    per_species=[db.resolve(x) for x in reaction_spec.get("per_species", [])],
                     minimum_energy_kJ=float(data.get("minimum_energy_kJ_per_mol", DEFAULT_MINIMUM_ENERGY_KJ)),
                     source=path, mixing=mixing, raw=data)
 

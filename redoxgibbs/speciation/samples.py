@@ -20,7 +20,7 @@ from ..species.elements import molar_mass_g_mol
 from ..units import to_unit
 from ..water.iapws95 import psat_convention_bar
 
-__all__ = ["SampleSet", "read_samples", "parse_column_header"]
+__all__ = ["SampleSet", "read_samples", "read_sample_table", "parse_column_header", "merge_sample_sets"]
 
 _HEADER = re.compile(r"^\s*(.+?)\s*\[\s*(.+?)\s*\]\s*$")
 _PREFIX = {"": 1.0, "m": 1e-3, "u": 1e-6, "n": 1e-9}
@@ -168,6 +168,13 @@ def _read_csv(path):
         raise InputError(f"samples: file {path} is not a readable CSV table ({err})") from None
 
 
+def read_sample_table(path):
+    """The sample table at ``path`` as written (a DataFrame), its file and header problems refused."""
+    frame = _read_csv(path)
+    _check_columns(_csv_header(path))
+    return frame
+
+
 def _csv_header(path):
     """The header cells as written (pandas renames repeated names, so read them directly)."""
     import csv
@@ -208,12 +215,10 @@ def read_samples(source, db=None):
     db = default_database() if db is None else db
     if isinstance(source, pd.DataFrame):
         frame = source.copy()
-        columns = [str(c).strip() for c in frame.columns]
+        _check_columns([str(c).strip() for c in frame.columns])
     else:
-        frame = _read_csv(source)
-        columns = _csv_header(source)
+        frame = read_sample_table(source)
     frame.columns = [str(c).strip() for c in frame.columns]
-    _check_columns(columns)
     if "sample" not in frame.columns:
         raise InputError("samples: a 'sample' column (the sample names) is required")
     labels = _sample_names(frame["sample"])
@@ -321,3 +326,44 @@ def _to_molality(totals_raw, density_kg_L):
             break
         m = new
     return {k: np.where(np.isnan(totals_raw[k][1]), np.nan, m[k]) for k in m}, estimated
+
+
+def merge_sample_sets(sets, groups, db=None):
+    """One SampleSet from several read on their own, each with its own units and species names.
+
+    ``groups`` names each set (e.g. its site) for the messages. A component given under different
+    species in different sets (HCO3- in one, CO2(aq) in another) is merged under the first name,
+    its totals converted by the stoichiometry that relates the two; sample names must be unique
+    across the sets.
+    """
+    from .system import _heavy_elements, decompose
+
+    db = default_database() if db is None else db
+    owner = {}
+    for group, s in zip(groups, sets):
+        for name in s.names:
+            if name in owner:
+                raise InputError(f"sample {name!r} is named in both {owner[name]!r} and {group!r}; give every "
+                                 "sample its own name")
+            owner[name] = group
+    n_all = sum(len(s) for s in sets)
+    offsets = np.cumsum([0] + [len(s) for s in sets])
+    totals, gases = {}, {}
+    for s, start in zip(sets, offsets):
+        for species, values in s.totals.items():
+            key, factor = species, 1.0
+            for other in totals:
+                found = decompose(db.record(species), {other: _heavy_elements(db.record(other))}, db)
+                if found is not None:
+                    key, factor = other, found[0][other]
+                    break
+            column = totals.setdefault(key, np.full(n_all, np.nan))
+            column[start:start + len(s)] = values * factor
+        for gas, values in s.gas_fugacity_bar.items():
+            column = gases.setdefault(gas, np.full(n_all, np.nan))
+            column[start:start + len(s)] = values
+    join = lambda attr: np.concatenate([getattr(s, attr) for s in sets])
+    return SampleSet(names=[n for s in sets for n in s.names], T_K=join("T_K"), P_bar=join("P_bar"),
+                     pH=join("pH"), pH_T_K=join("pH_T_K"), totals=totals, gas_fugacity_bar=gases,
+                     density_kg_L=join("density_kg_L"), density_estimated=join("density_estimated"),
+                     notes=[x for s in sets for x in s.notes], problems=join("problems"))

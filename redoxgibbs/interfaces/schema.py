@@ -1,0 +1,266 @@
+"""The scenario file's schema, written down once and enforced.
+
+Every section and key a scenario may hold is declared here with its type, its allowed values and a
+one-line description; :func:`check_scenario` refuses unknown keys (naming the nearest known one),
+wrong types and out-of-range values, naming the key and what is expected. The same declarations
+produce the scenario reference (:func:`schema_reference`).
+"""
+
+import difflib
+import math
+from dataclasses import dataclass, field
+
+from ..errors import InputError
+
+__all__ = ["Key", "SCENARIO", "check_scenario", "schema_reference"]
+
+
+@dataclass(frozen=True)
+class Key:
+    """One key: ``kind`` is str, number, integer, bool, strings (a list of text), numbers (a list),
+    range ([low, high] with low <= high), table (fixed keys), tables (an array of tables with fixed
+    keys), columns (a table of sample columns to values) or inputs (sweep inputs)."""
+
+    kind: str
+    doc: str
+    required: bool = False
+    choices: tuple = ()
+    positive: bool = False          # > 0
+    non_negative: bool = False      # >= 0
+    within: tuple = ()              # (low, high), inclusive
+    keys: dict = field(default_factory=dict)
+    words: tuple = ()               # strings also accepted in place of a list (e.g. "all")
+
+
+_POSITIVE = dict(positive=True)
+
+SUPPLY = {
+    "kind": Key("str", "supply model", required=True,
+                choices=("flow-through", "turnover", "areal-flux", "rate")),
+    "flux_kg_per_s": Key("number", "fluid mass flux through the habitat [kg/s] (flow-through)", **_POSITIVE),
+    "volume_m3": Key("number", "habitat volume [m3] (flow-through)", **_POSITIVE),
+    "tau_s": Key("number", "renewal time of the reactant pool [s] (turnover)", **_POSITIVE),
+    "areal_flux_mol_per_m2_yr": Key("number", "flux of the limiting reactant [mol/m2/yr] (areal-flux)", **_POSITIVE),
+    "thickness_m": Key("number", "thickness of the layer it feeds [m] (areal-flux)", **_POSITIVE),
+    "limiting_species": Key("str", "the species the areal flux delivers (areal-flux)"),
+    "rate_mol_per_L_s": Key("number", "reaction rate [mol/L/s] (rate)", **_POSITIVE),
+}
+_SUPPLY_NEEDS = {"flow-through": ("flux_kg_per_s", "volume_m3"), "turnover": ("tau_s",),
+                 "areal-flux": ("areal_flux_mol_per_m2_yr", "thickness_m", "limiting_species"),
+                 "rate": ("rate_mol_per_L_s",)}
+
+CELLS = {
+    "model": Key("str", "per-cell power model", choices=("tijhuis1993", "basal")),
+    "cell_carbon_g": Key("range", "carbon per cell, [low, high] [g C] (tijhuis1993)", **_POSITIVE),
+    "basal_W": Key("range", "basal power per cell, [low, high] [W] (basal)", **_POSITIVE),
+}
+
+SITE = {
+    "name": Key("str", "site name", required=True),
+    "samples": Key("str", "sample table (CSV), relative to the scenario file"),
+    "fluid": Key("columns", "one inline sample: sample-table columns to values"),
+    "supply": Key("tables", "supply models of this site (default: the scenario's [[supply]])", keys=SUPPLY),
+    "cells": Key("table", "per-cell power model of this site (default: the scenario's [cells])", keys=CELLS),
+}
+
+REACTIONS = {
+    "catalog": Key("strings", "catalog reaction names, or \"all\"", words=("all",)),
+    "custom": Key("strings", "reaction strings, e.g. \"CO2(aq) + 4 H2(aq) = CH4(aq) + 2 H2O(l)\""),
+    "enumerate": Key("table", "donor x acceptor enumeration of redox couples", keys={
+        "donors": Key("strings", "couples giving electrons, \"all\" or \"present\"", words=("all", "present")),
+        "acceptors": Key("strings", "couples taking electrons, \"all\" or \"present\"", words=("all", "present")),
+    }),
+    "per_species": Key("strings", "species per mole of which dGr is also given"),
+}
+
+MIXING = {
+    "hydrothermal": Key("str", "sample name of the hot end-member", required=True),
+    "seawater": Key("str", "sample name of the cold end-member", required=True),
+    "temperatures_C": Key("numbers", "mixture temperatures [degC]"),
+    "fractions": Key("numbers", "mass fractions of the hot end-member", within=(0.0, 1.0)),
+    "temperature_rule": Key("str", "how mixtures take their temperature", choices=("enthalpy", "linear")),
+}
+
+SWEEP = {
+    "sample": Key("str", "the base sample's name"),
+    "draws": Key("integer", "Monte Carlo draws", **_POSITIVE),
+    "seed": Key("integer", "random seed", non_negative=True),
+    "chunk_size": Key("integer", "draws per chunk", **_POSITIVE),
+    "water": Key("str", "water properties: exact or interpolated from a table", choices=("exact", "tabulated")),
+    "inputs": Key("inputs", "swept inputs: a column (or supply:FIELD, mixing:fraction) to a list of grid "
+                            "values or a distribution {distribution, mean, sd | median, sigma_ln | low, high}",
+                  required=True),
+    "mixing": Key("table", "sweep the mixing fraction between two end-members", keys={
+        "hydrothermal": Key("str", "hot end-member", required=True),
+        "seawater": Key("str", "cold end-member", required=True),
+        "temperature_rule": Key("str", "how mixtures take their temperature", choices=("enthalpy", "linear")),
+    }),
+}
+
+SCENARIO = {
+    "title": Key("str", "report title"),
+    "activity_model": Key("str", "activity model", choices=("ideal", "davies", "bdot")),
+    "minimum_energy_kJ_per_mol": Key("number", "smallest |dGr| a catabolism is taken to use [kJ/mol]",
+                                     non_negative=True),
+    "sites": Key("tables", "sites: each a sample table or one inline fluid", required=True, keys=SITE),
+    "reactions": Key("table", "reactions to evaluate", required=True, keys=REACTIONS),
+    "supply": Key("tables", "supply models (every site's default)", keys=SUPPLY),
+    "units": Key("table", "units of the power columns", keys={
+        "power_per_volume": Key("str", "e.g. \"W/m3\", \"nW/cm3\", \"uW/L\""),
+        "power_per_mass": Key("str", "e.g. \"W/kg\", \"uW/kg\""),
+    }),
+    "cells": Key("table", "per-cell power model (every site's default)", keys=CELLS),
+    "mixing": Key("table", "energetics along the mixing path of two samples", keys=MIXING),
+    "uncertainty": Key("table", "Monte Carlo uncertainty (redoxgibbs sweep)", keys=SWEEP),
+    "sweep": Key("table", "grid sweep (redoxgibbs sweep)", keys=SWEEP),
+}
+
+_DISTRIBUTIONS = {"normal": ("mean", "sd"), "lognormal": ("median", "sigma_ln"), "uniform": ("low", "high")}
+_TYPE_WORDS = {"str": "text", "number": "a number", "integer": "a whole number", "bool": "true or false",
+               "strings": "a list of text", "numbers": "a list of numbers", "range": "[low, high]",
+               "table": "a table", "tables": "an array of tables ([[...]])", "columns": "a table",
+               "inputs": "a table"}
+
+
+def _fail(where, message):
+    raise InputError(f"scenario: {where}: {message}")
+
+
+def _is_number(v):
+    return isinstance(v, (int, float)) and not isinstance(v, bool) and math.isfinite(v)
+
+
+def _check_number(where, key, v):
+    if not _is_number(v):
+        _fail(where, f"expected a finite number, got {v!r}")
+    if key.positive and v <= 0:
+        _fail(where, f"must be above 0, got {v!r}")
+    if key.non_negative and v < 0:
+        _fail(where, f"must not be negative, got {v!r}")
+    if key.within and not key.within[0] <= v <= key.within[1]:
+        _fail(where, f"must lie between {key.within[0]:g} and {key.within[1]:g}, got {v!r}")
+
+
+def _check_value(where, key, v):
+    kind = key.kind
+    if kind == "str":
+        if not isinstance(v, str) or not v.strip():
+            _fail(where, f"expected {_TYPE_WORDS[kind]}, got {v!r}")
+        if key.choices and v.strip().lower() not in key.choices:
+            _fail(where, f"{v!r} is not one of {', '.join(key.choices)}")
+    elif kind == "number":
+        _check_number(where, key, v)
+    elif kind == "integer":
+        if isinstance(v, bool) or not isinstance(v, int):
+            _fail(where, f"expected a whole number, got {v!r}")
+        _check_number(where, key, v)
+    elif kind == "strings":
+        if isinstance(v, str) and v in key.words:
+            return
+        if not isinstance(v, list) or not all(isinstance(x, str) and x.strip() for x in v):
+            words = f" or one of {', '.join(repr(w) for w in key.words)}" if key.words else ""
+            _fail(where, f"expected a list of text{words}, got {v!r}")
+    elif kind in ("numbers", "range"):
+        if not isinstance(v, list) or not v:
+            _fail(where, f"expected {_TYPE_WORDS[kind]}, got {v!r}")
+        for i, x in enumerate(v):
+            _check_number(f"{where}[{i}]", key, x)
+        if kind == "range" and (len(v) != 2 or v[0] > v[1]):
+            _fail(where, f"expected [low, high] with low <= high, got {v!r}")
+    elif kind == "table":
+        if not isinstance(v, dict):
+            _fail(where, f"expected a table, got {v!r}")
+        _check_table(where, v, key.keys)
+    elif kind == "tables":
+        if not isinstance(v, list) or not all(isinstance(t, dict) for t in v):
+            _fail(where, f"expected an array of tables ([[...]]), got {v!r}")
+        for i, t in enumerate(v):
+            _check_table(f"{where} {i + 1}", t, key.keys)
+            if key.keys is SUPPLY:
+                _check_supply(f"{where} {i + 1}", t)
+    elif kind == "columns":
+        if not isinstance(v, dict):
+            _fail(where, f"expected a table of sample columns, got {v!r}")
+        for col, x in v.items():
+            if not (_is_number(x) or isinstance(x, str)):
+                _fail(f"{where}.{col}", f"expected a number or text, got {x!r}")
+    elif kind == "inputs":
+        _check_inputs(where, v)
+
+
+def _check_supply(where, table):
+    kind = table.get("kind", "").strip().lower()
+    missing = [k for k in _SUPPLY_NEEDS.get(kind, ()) if k not in table]
+    if missing:
+        _fail(where, f"a {kind} supply needs {', '.join(missing)}")
+    extra = [k for k in table if k != "kind" and k not in _SUPPLY_NEEDS.get(kind, ())]
+    if extra:
+        _fail(where, f"{', '.join(extra)} do not belong to a {kind} supply (it takes "
+                     f"{', '.join(_SUPPLY_NEEDS[kind])})")
+
+
+def _check_inputs(where, v):
+    if not isinstance(v, dict) or not v:
+        _fail(where, "expected a table mapping each swept input to its values or distribution")
+    for col, spec in v.items():
+        here = f"{where}.{col!r}"
+        if isinstance(spec, list):
+            if not spec or not all(_is_number(x) for x in spec):
+                _fail(here, f"a grid is a non-empty list of numbers, got {spec!r}")
+            continue
+        if not isinstance(spec, dict):
+            _fail(here, f"expected a list of grid values or a distribution table, got {spec!r}")
+        kind = spec.get("distribution")
+        if kind not in _DISTRIBUTIONS:
+            _fail(here, f"distribution must be one of {', '.join(_DISTRIBUTIONS)}, got {kind!r}")
+        a, b = _DISTRIBUTIONS[kind]
+        extra = set(spec) - {"distribution", a, b}
+        if extra:
+            _fail(here, f"a {kind} distribution takes {a} and {b}, not {', '.join(sorted(extra))}")
+        for k in (a, b):
+            if not _is_number(spec.get(k)):
+                _fail(f"{here}.{k}", f"expected a number, got {spec.get(k)!r}")
+        if kind == "uniform" and spec["low"] > spec["high"]:
+            _fail(here, f"low ({spec['low']}) is above high ({spec['high']})")
+        if kind in ("normal", "lognormal") and spec[b] <= 0:
+            _fail(f"{here}.{b}", f"must be above 0, got {spec[b]!r}")
+        if kind == "lognormal" and spec[a] <= 0:
+            _fail(f"{here}.{a}", f"must be above 0, got {spec[a]!r}")
+
+
+def _check_table(where, table, keys):
+    for name, value in table.items():
+        if name not in keys:
+            near = difflib.get_close_matches(name, keys, n=1, cutoff=0.5)
+            hint = f"; did you mean {near[0]!r}?" if near else f"; known keys: {', '.join(keys)}"
+            _fail(where, f"unknown key {name!r}{hint}")
+        _check_value(f"{where}.{name}" if where else name, keys[name], value)
+    for name, key in keys.items():
+        if key.required and name not in table:
+            _fail(where or "top level", f"{name!r} is required ({key.doc})")
+
+
+def check_scenario(data):
+    """Refuse, naming the key, any scenario content the schema does not allow."""
+    _check_table("", data, SCENARIO)
+    for i, site in enumerate(data["sites"]):
+        if ("samples" in site) == ("fluid" in site):
+            _fail(f"sites {i + 1} ({site['name']!r})", "give either samples (a CSV file) or a [sites.fluid] table")
+    mixing = data.get("mixing")
+    if mixing is not None and ("temperatures_C" in mixing) == ("fractions" in mixing):
+        _fail("mixing", "give either temperatures_C or fractions")
+
+
+def schema_reference(keys=SCENARIO, prefix=""):
+    """The scenario reference as Markdown lines: every key, its type, allowed values and meaning."""
+    lines = []
+    for name, key in keys.items():
+        path = f"{prefix}{name}"
+        extra = [f"one of {', '.join(key.choices)}"] if key.choices else []
+        if key.required:
+            extra.append("required")
+        note = f" ({'; '.join(extra)})" if extra else ""
+        lines.append(f"- `{path}`: {_TYPE_WORDS[key.kind]}{note}: {key.doc}")
+        if key.keys:
+            lines += schema_reference(key.keys, f"{path}.")
+    return lines
