@@ -74,16 +74,80 @@ def test_seeded_and_reproducible(tmp_path):
     assert a.equals(b) and not a.equals(c)
 
 
-def test_interrupted_sweep_resumes_from_chunks_on_disk(tmp_path):
+def test_interrupted_sweep_resumes_from_chunks_on_disk(tmp_path, monkeypatch):
+    import redoxgibbs.sweeps.runner as runner
+
     spec = _spec(n=1500, chunk=500)
     full = _run(spec, tmp_path / "full")
     part = tmp_path / "part"
-    part.mkdir()
-    run_chunk(spec, 1, part)            # a run stopped after one chunk
-    stamp = (part / "chunk_00001.parquet").stat().st_mtime_ns
+    real, calls = runner.run_chunk, []
+
+    def stop_after_one(*args):
+        if calls:
+            raise KeyboardInterrupt
+        calls.append(args)
+        return real(*args)
+
+    monkeypatch.setattr(runner, "run_chunk", stop_after_one)
+    with pytest.raises(KeyboardInterrupt):
+        run_sweep(spec, part, quiet=True)     # a run stopped after one chunk
+    monkeypatch.setattr(runner, "run_chunk", real)
+    stamp = (part / "chunk_00000.parquet").stat().st_mtime_ns
     resumed = _run(spec, part)
-    assert (part / "chunk_00001.parquet").stat().st_mtime_ns == stamp   # not recomputed
+    assert (part / "chunk_00000.parquet").stat().st_mtime_ns == stamp   # not recomputed
     assert resumed.reset_index(drop=True).equals(full.reset_index(drop=True))
+
+
+def test_a_folder_of_another_sweep_is_refused_by_name(tmp_path):
+    from redoxgibbs.errors import InputError
+
+    _run(_spec(n=1000, chunk=500), tmp_path)
+    for other in (_spec(n=1000, chunk=500, seed=12), _spec(n=2000, chunk=500), _spec(n=1000, chunk=250),
+                  _spec(n=1000, chunk=500, sigma=0.5)):
+        with pytest.raises(InputError, match="holds another sweep"):
+            run_sweep(other, tmp_path, quiet=True)
+    frame = load_results(tmp_path)
+    assert len(frame) == 1000
+    fresh = _spec(n=1000, chunk=500, seed=12)
+    run_sweep(fresh, tmp_path, quiet=True, fresh=True)
+    assert not load_results(tmp_path).equals(frame)
+
+
+def test_stray_and_damaged_chunks(tmp_path, capsys):
+    import shutil
+
+    from redoxgibbs.errors import InputError
+
+    spec = _spec(n=1000, chunk=500)
+    full = _run(spec, tmp_path)
+    shutil.copy(tmp_path / "chunk_00000.parquet", tmp_path / "chunk_00007.parquet")   # a stray copy
+    with pytest.raises(InputError, match="chunk_00007.parquet is not one of this sweep's chunks"):
+        run_sweep(spec, tmp_path, quiet=True)
+    (tmp_path / "chunk_00007.parquet").unlink()
+    (tmp_path / "chunk_00001.parquet").write_bytes(b"not parquet")                    # a damaged one
+    again = _run(spec, tmp_path)
+    assert "chunk_00001.parquet is damaged" in capsys.readouterr().err
+    assert again.equals(full)
+
+
+def test_two_sweeps_into_one_folder_at_once(tmp_path):
+    import threading
+
+    spec = _spec(n=2000, chunk=500)
+    errors = []
+
+    def go():
+        try:
+            run_sweep(spec, tmp_path, quiet=True)
+        except Exception as err:   # collected and asserted below
+            errors.append(err)
+
+    threads = [threading.Thread(target=go) for _ in range(2)]
+    for t in threads:
+        t.start()
+    for t in threads:
+        t.join()
+    assert not errors and len(load_results(tmp_path)) == 2000
 
 
 def test_grid_sweep_is_the_product_of_the_values(tmp_path):
@@ -122,7 +186,7 @@ def test_supply_rate_sweep_scales_power(tmp_path):
 
     spec = SweepSpec(base=BASE, inputs={"supply:flux_kg_per_s": Distribution("grid", values=(1.0, 3.0))},
                      reactions=("aerobic hydrogen oxidation",), activity_model="ideal", chunk_size=10,
-                     supply=Supply("flow-through", flux_kg_per_s=1.0, volume_m3=10.0))
+                     supplies=(Supply("flow-through", flux_kg_per_s=1.0, volume_m3=10.0),))
     base = dict(BASE, **{"H2(aq) [umol/kg]": 5.0})
     spec = SweepSpec(**{**vars(spec), "base": base})
     frame = _run(spec, tmp_path)

@@ -199,7 +199,7 @@ def _sweep(args):
 
     spec = sweep_spec(load_scenario(args.scenario))
     percentiles, correlations = run_sweep(spec, args.out, workers=args.workers,
-                                          scheduler=args.scheduler, quiet=args.quiet)
+                                          scheduler=args.scheduler, quiet=args.quiet, fresh=args.fresh)
     percentiles.to_csv(f"{args.out}/percentiles.csv", index=False)
     correlations.to_csv(f"{args.out}/rank_correlations.csv", index=False)
     print(percentiles.to_string(index=False, float_format=lambda v: f"{v:.4g}"))
@@ -277,6 +277,8 @@ def _parser():
     swp.add_argument("--workers", type=int, help="start a local dask cluster with this many workers")
     swp.add_argument("--scheduler", help="address of an existing dask.distributed scheduler")
     swp.add_argument("--quiet", action="store_true")
+    swp.add_argument("--fresh", action="store_true",
+                     help="empty the output folder first (it must otherwise hold this same sweep)")
     swp.set_defaults(run=_sweep)
     demo = sub.add_parser("demo", help="run the bundled demo scenario (invented sites)")
     demo.add_argument("--out", default="redoxgibbs-demo", help="output folder (default %(default)s)")
@@ -292,6 +294,10 @@ def main(argv=None):
     except RedoxGibbsError as err:
         print(f"redoxgibbs: error: {err}", file=sys.stderr)
         return 2
+    except KeyboardInterrupt:
+        print("redoxgibbs: interrupted; nothing half-written is kept (a sweep resumes from its "
+              "finished chunks)", file=sys.stderr)
+        return 130
     except BrokenPipeError:   # output piped into a reader that stopped early (e.g. head)
         sys.stdout = open(os.devnull, "w")
         return 0

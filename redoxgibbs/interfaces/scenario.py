@@ -200,15 +200,18 @@ def sweep_spec(scenario):
         mixing = {"hydrothermal": row(mixing.get("hydrothermal")), "seawater": row(mixing.get("seawater")),
                   "temperature_rule": mixing.get("temperature_rule", "enthalpy")}
         base = {}
+        site = None
     else:
         base = row(section.get("sample"))
+        where = dict(zip(scenario.sample_set.names, scenario.site_of_samples()))[str(section["sample"])]
+        site = next(x for x in scenario.sites if x.name == where)
     inputs = {c: _distribution(c, d) for c, d in section.get("inputs", {}).items()}
     if not inputs:
         raise InputError("scenario: the sweep section names no inputs")
-    return SweepSpec(base=base, inputs=inputs, reactions=tuple(x.name if x.group else str(x.reaction)
-                                                                for x in scenario.reactions),
+    return SweepSpec(base=base, inputs=inputs, reactions=tuple(scenario.reactions),
                      activity_model=scenario.activity_model, n=int(section.get("draws", 1000)),
                      chunk_size=int(section.get("chunk_size", 10_000)), seed=int(section.get("seed", 0)),
-                     supply=scenario.supplies[0] if scenario.supplies else None, cells=scenario.cells,
+                     supplies=tuple(site.supplies if site else scenario.supplies),
+                     cells=site.cells if site else scenario.cells,
                      power_units=scenario.power_units,
                      water=section.get("water", "exact"), mixing=mixing)

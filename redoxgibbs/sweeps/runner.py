@@ -15,16 +15,18 @@ from the chunks already on disk. The same chunks run in-process or on a dask.dis
 import itertools
 import os
 import sys
+import uuid
 from dataclasses import dataclass, field, replace
 from pathlib import Path
 
 import numpy as np
 import pandas as pd
 
-from ..energetics.catalog import resolve_reactions
+from ..energetics.catalog import NamedReaction, resolve_reactions
 from ..energetics.insitu import insitu_energetics
 from ..energetics.power import CellRequirement, PowerUnits, power_per_cell_W, power_per_volume
 from ..errors import InputError
+from ..reactions.reaction import Reaction
 from ..species.database import default_database
 from ..speciation.mixing import mixture_samples
 from ..speciation.samples import read_samples
@@ -35,7 +37,8 @@ from ..water.table import WaterTable
 _WORKER_MALLOC = {"distributed.nanny.pre-spawn-environ.MALLOC_TRIM_THRESHOLD_": 1 << 30,
                   "distributed.nanny.pre-spawn-environ.MALLOC_MMAP_THRESHOLD_": 1 << 25}
 
-__all__ = ["Distribution", "SweepSpec", "run_chunk", "run_sweep", "summarize", "load_results", "grid_dataset"]
+__all__ = ["Distribution", "SweepSpec", "reaction_records", "run_chunk", "run_sweep", "summarize", "load_results",
+           "grid_dataset"]
 
 
 @dataclass(frozen=True)
@@ -57,22 +60,53 @@ class Distribution:
         raise InputError(f"distribution {self.kind!r} is unknown; use normal, lognormal or uniform")
 
 
+def reaction_records(reactions, db=None):
+    """Reactions as plain records (name, equation, electrons, group) that travel to workers and
+    are rebuilt there exactly (no lookup by name): from NamedReaction objects, catalog names or
+    reaction strings."""
+    out = []
+    for x in reactions:
+        if isinstance(x, tuple):
+            out.append(x)
+            continue
+        named = x if isinstance(x, NamedReaction) else resolve_reactions([x], db=db)[0]
+        out.append((named.name, str(named.reaction), float(named.electrons), named.group))
+    return tuple(out)
+
+
+def _rebuild(records, db):
+    return [NamedReaction(name, Reaction(eq, db=db), electrons, group) for name, eq, electrons, group in records]
+
+
 @dataclass(frozen=True)
 class SweepSpec:
     """Everything a chunk needs (plain, picklable data)."""
 
     base: dict
     inputs: dict                       # column -> Distribution
-    reactions: tuple                   # catalog names or reaction strings
+    reactions: tuple                   # reaction records, or catalog names / reaction strings
     activity_model: str = "bdot"
     n: int = 1000
     chunk_size: int = 10_000
     seed: int = 0
-    supply: object = None
+    supplies: tuple = ()               # every supply model; one power column per model
     cells: CellRequirement = field(default_factory=CellRequirement)
     power_units: PowerUnits = field(default_factory=PowerUnits)
     water: str = "exact"               # or "tabulated": a WaterTable over each chunk's range
     mixing: dict = None                # {"hydrothermal": row, "seawater": row, "temperature_rule"}
+
+    def __post_init__(self):
+        object.__setattr__(self, "reactions", reaction_records(self.reactions))
+        object.__setattr__(self, "supplies", tuple(self.supplies))
+
+    def fingerprint(self):
+        """A hash of everything that determines the results (the manifest's identity)."""
+        import hashlib
+
+        return hashlib.sha256(repr((sorted(self.base.items()), sorted(self.inputs.items()), self.reactions,
+                                    self.activity_model, self.n, self.chunk_size, self.seed, self.supplies,
+                                    self.cells, self.power_units.per_volume, self.power_units.per_mass,
+                                    self.water, self.mixing)).encode()).hexdigest()
 
     @property
     def is_grid(self):
@@ -142,34 +176,114 @@ def run_chunk(spec, index, out_dir):
         raise InputError(f"sweep: water = {spec.water!r}; use 'exact' or 'tabulated'")
     result = speciate(samples, spec.activity_model, db=db, water=water,
                       pH_from_charge_balance=spec.mixing is not None, charge_balance_target=charge_target)
-    reactions = resolve_reactions(list(spec.reactions), db=db)
+    reactions = _rebuild(spec.reactions, db)
     W, rho = samples.water_fraction_and_density(db)
-    e = insitu_energetics(result, reactions, db=db, water_per_kg_solution=W, density_kg_L=rho, water=water)
+    e = insitu_energetics(result, reactions, db=db, gas_fugacity=samples.gas_fugacity_bar,
+                          water_per_kg_solution=W, density_kg_L=rho, water=water)
     out = pd.DataFrame({"draw": np.arange(start, start + len(frame))})
     for c, v in drawn.items():
         out[f"input:{c}"] = v
     out["pH_insitu"] = result.pH
+    out["failure"] = result.failure
     supply_inputs = {c[7:]: v[:, None] for c, v in drawn.items() if c.startswith("supply:")}
-    if supply_inputs and spec.supply is None:
+    if supply_inputs and not spec.supplies:
         raise InputError("sweep: supply inputs need a [[supply]] model in the scenario")
-    if spec.supply is not None:
-        unknown = set(supply_inputs) - set(vars(spec.supply))
-        if unknown:
-            raise InputError(f"sweep: supply fields {sorted(unknown)} are unknown; known: {sorted(vars(spec.supply))}")
-        power = power_per_volume(replace(spec.supply, **supply_inputs), e)
-        low_W, high_W = power_per_cell_W(spec.cells, result.T_K)
+    powers = []
+    for supply in spec.supplies:
+        given = {k: v for k, v in supply_inputs.items() if k in vars(supply)}
+        powers.append(power_per_volume(replace(supply, **given), e))
+    unknown = set(supply_inputs) - set().union(*(vars(x) for x in spec.supplies))
+    if unknown:
+        raise InputError(f"sweep: supply fields {sorted(unknown)} are unknown")
+    low_W, high_W = power_per_cell_W(spec.cells, result.T_K)
+    units = spec.power_units
     for r, x in enumerate(reactions):
         out[f"{x.name}|dGr_kJ_per_mol"] = e.dGr[:, r] / 1e3
         out[f"{x.name}|energy_density_J_per_kg"] = e.energy_density_J_per_kg[:, r]
-        if spec.supply is not None:
-            out[f"{x.name}|{spec.power_units.volume_column}"] = power[:, r] * spec.power_units.volume_factor
-            out[f"{x.name}|cells_per_m3_low"] = power[:, r] / high_W
-            out[f"{x.name}|cells_per_m3_high"] = power[:, r] / low_W
-    path = Path(out_dir) / f"chunk_{index:05d}.parquet"
-    tmp = path.with_suffix(".partial")
+        for supply, power in zip(spec.supplies, powers):
+            tag = "" if len(spec.supplies) == 1 else f" [{supply.describe()}]"
+            out[f"{x.name}|{units.volume_column}{tag}"] = power[:, r] * units.volume_factor
+            out[f"{x.name}|cells_per_m3_low{tag}"] = power[:, r] / high_W
+            out[f"{x.name}|cells_per_m3_high{tag}"] = power[:, r] / low_W
+    path = Path(out_dir) / _chunk_name(index)
+    tmp = path.with_name(f"{path.stem}.{os.getpid()}.{uuid.uuid4().hex}.partial")   # unique per writer
     out.to_parquet(tmp, index=False)
     os.replace(tmp, path)   # a chunk on disk is always complete
     return str(path)
+
+
+def _chunk_name(index):
+    return f"chunk_{index:05d}.parquet"
+
+
+MANIFEST = "manifest.json"
+
+
+def _manifest(spec):
+    from importlib.metadata import PackageNotFoundError, version
+
+    try:
+        code = version("redoxgibbs")
+    except PackageNotFoundError:   # pragma: no cover - running from a source tree
+        code = "unknown"
+    return {"fingerprint": spec.fingerprint(), "seed": spec.seed, "draws": spec.total,
+            "chunk_size": spec.chunk_size, "chunks": spec.n_chunks, "code_version": code,
+            "reactions": [r[0] for r in spec.reactions], "supplies": [x.describe() for x in spec.supplies]}
+
+
+def _prepare_folder(spec, out, fresh):
+    """Check (or start) the sweep folder: its manifest must be this spec's, every chunk file one
+    of this sweep's chunks, and each chunk readable and complete; returns the chunks to compute."""
+    import json
+
+    import pyarrow.parquet as pq
+
+    out.mkdir(parents=True, exist_ok=True)
+    manifest_path = out / MANIFEST
+    chunks = sorted(out.glob("chunk_*"))
+    if fresh:
+        for p in chunks + sorted(out.glob("*.partial")):
+            p.unlink()
+        chunks = []
+        manifest_path.unlink(missing_ok=True)
+    wanted = _manifest(spec)
+    if manifest_path.exists():
+        try:
+            found = json.loads(manifest_path.read_text())
+        except ValueError:
+            raise InputError(f"sweep: {manifest_path} is not a readable manifest; start the folder afresh "
+                             "(--fresh) or choose another --out") from None
+        if found.get("fingerprint") != wanted["fingerprint"]:
+            raise InputError(f"sweep: folder {out} holds another sweep (different scenario, seed, draws, chunk "
+                             "size or distributions); choose another --out, or --fresh to start it afresh")
+    elif chunks:
+        raise InputError(f"sweep: folder {out} holds chunk files but no manifest; choose another --out, or "
+                         "--fresh to start it afresh")
+    known = {_chunk_name(i): i for i in range(spec.n_chunks)}
+    todo = set(range(spec.n_chunks))
+    for p in chunks:
+        if p.name not in known:
+            raise InputError(f"sweep: {p} is not one of this sweep's chunks (chunk_00000 to "
+                             f"{_chunk_name(spec.n_chunks - 1)}); remove it or start afresh (--fresh)")
+        i = known[p.name]
+        expected = min(spec.chunk_size, spec.total - i * spec.chunk_size)
+        try:
+            complete = pq.read_metadata(p).num_rows == expected
+        except Exception:   # pyarrow raises several kinds on damaged files
+            complete = False
+        if complete:
+            todo.discard(i)
+        else:
+            print(f"redoxgibbs: chunk {p.name} is damaged or incomplete; computing it again", file=sys.stderr)
+            p.unlink()
+    _write_atomically(manifest_path, json.dumps(wanted, indent=1))
+    return sorted(todo)
+
+
+def _write_atomically(path, text):
+    tmp = path.with_name(f"{path.name}.{os.getpid()}.{uuid.uuid4().hex}.partial")
+    tmp.write_text(text)
+    os.replace(tmp, path)
 
 
 def _progress(done, total, quiet):
@@ -182,13 +296,13 @@ def _progress(done, total, quiet):
             sys.stderr.write("\n")
 
 
-def run_sweep(spec, out_dir, workers=None, scheduler=None, quiet=False):
+def run_sweep(spec, out_dir, workers=None, scheduler=None, quiet=False, fresh=False):
     """Run every chunk not yet on disk (in-process, on ``workers`` local dask workers, or on the
     dask scheduler at ``scheduler``); returns (percentiles, rank correlations), see
-    :func:`summarize`; :func:`load_results` reads the per-draw table."""
+    :func:`summarize`; :func:`load_results` reads the per-draw table. The folder's manifest must
+    match ``spec`` (``fresh`` empties the folder first)."""
     out = Path(out_dir)
-    out.mkdir(parents=True, exist_ok=True)
-    todo = [i for i in range(spec.n_chunks) if not (out / f"chunk_{i:05d}.parquet").exists()]
+    todo = _prepare_folder(spec, out, fresh)
     done = spec.n_chunks - len(todo)
     _progress(done, spec.n_chunks, quiet)
     if workers or scheduler:
@@ -219,7 +333,7 @@ def run_sweep(spec, out_dir, workers=None, scheduler=None, quiet=False):
 
 
 def _chunk_paths(out_dir):
-    return sorted(Path(out_dir).glob("chunk_*.parquet"))
+    return sorted(Path(out_dir).glob("chunk_[0-9][0-9][0-9][0-9][0-9].parquet"))
 
 
 def load_results(out_dir, columns=None):
@@ -266,7 +380,7 @@ def summarize(out_dir, percentiles=(5, 50, 95), batch=8):
     for start in range(0, len(outputs), batch):
         block = load_results(out_dir, outputs[start:start + batch])
         for c in block.columns:
-            reaction, quantity = c.split("|")
+            reaction, quantity = c.split("|", 1)
             values = block[c].to_numpy(float)
             finite = np.isfinite(values)
             n = int(finite.sum())
@@ -295,5 +409,5 @@ def grid_dataset(spec, out_dir):
     shape = [len(spec.inputs[d].values) for d in dims]
     coords = {d: list(spec.inputs[d].values) for d in dims}
     data = {c: (dims, frame[c].to_numpy().reshape(shape)) for c in frame.columns
-            if "|" in c or c == "pH_insitu"}
+            if "|" in c or c in ("pH_insitu", "failure")}
     return xr.Dataset(data, coords=coords)
