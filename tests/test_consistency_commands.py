@@ -78,7 +78,7 @@ def test_assess_insitu_sweep_and_mix_agree(folder):
 def test_mixing_at_an_end_member_agrees_with_insitu(folder):
     # mixing mixes dissolved totals by mass, so its end-members give H2 as a dissolved total
     from redoxgibbs.energetics.insitu import insitu_energetics
-    from redoxgibbs.energetics.mixing import mixing_energetics
+    from redoxgibbs.pipeline.mixing import mixing_energetics
     from redoxgibbs.speciation.samples import read_samples
     from redoxgibbs.speciation.solver import speciate
 

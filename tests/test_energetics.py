@@ -133,7 +133,10 @@ def test_power_and_cells_hand_computed():
     r = speciate(_sample_frame(), "bdot")
     e = insitu_energetics(r, [x for x in catalog() if x.name == "aerobic hydrogen oxidation"])
     P = power_per_volume(Supply("flow-through", flux_kg_per_s=2.0, volume_m3=4.0), e)
-    np.testing.assert_allclose(P, e.energy_density_J_per_kg * 2.0 / 4.0, rtol=1e-12)
+    # per kg of solution: the water content of each fluid from its own solutes (W < 1)
+    assert (e.water_per_kg_solution < 1).all()
+    np.testing.assert_allclose(P, e.energy_density_J_per_kg * e.water_per_kg_solution[:, None] * 2.0 / 4.0,
+                               rtol=1e-12)
     rate = power_per_volume(Supply("rate", rate_mol_per_L_s=1e-12), e)
     np.testing.assert_allclose(rate, -e.dGr * 1e-12 * 1000.0, rtol=1e-12)
     # Tijhuis et al. (1993): 4.5 kJ per C-mol per hour at 25 C; a 1e-13 g C cell needs
@@ -289,7 +292,7 @@ def test_mixing_conserves_elements_and_mass():
 
 
 def test_mixing_end_members_reproduce_end_member_results():
-    from redoxgibbs.energetics.mixing import mixing_energetics
+    from redoxgibbs.pipeline.mixing import mixing_energetics
 
     rx = [x for x in catalog() if x.name in ("sulfate reduction with H2", "aerobic hydrogen oxidation")]
     frame = mixing_energetics(_end_members(), "vent", "sea", rx, fractions=[1.0, 0.0])

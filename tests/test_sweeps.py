@@ -213,7 +213,7 @@ def test_grid_sweep_as_xarray(tmp_path):
 def test_mixing_fraction_as_a_sweep_input(tmp_path):
     # the sweep's mixtures are those of the mixing path computed directly
     from redoxgibbs.energetics.catalog import resolve_reactions
-    from redoxgibbs.energetics.mixing import mixing_energetics
+    from redoxgibbs.pipeline.mixing import mixing_energetics
 
     vent = {"sample": "vent", "T [degC]": 300.0, "P [bar]": 250.0, "pH": 4.0, "Na+ [mmol/kg]": 450.0,
             "Cl- [mmol/kg]": 540.0, "HS- [mmol/kg]": 5.0, "H2(aq) [mmol/kg]": 1.0, "O2(aq) [umol/kg]": 0.0,

@@ -175,8 +175,11 @@ def _activity_columns(result, names, db, gas_fugacity):
 
 
 def insitu_energetics(result, reactions, db=None, minimum_energy_kJ=DEFAULT_MINIMUM_ENERGY_KJ,
-                      gas_fugacity=None, water_per_kg_solution=None, density_kg_L=None, water=water_state):
-    """Gibbs energies and energy densities of ``reactions`` (NamedReaction) in speciated samples."""
+                      gas_fugacity=None, water=water_state):
+    """Gibbs energies and energy densities of ``reactions`` (NamedReaction) in speciated samples.
+
+    Energy per kg of solution and per litre use the speciation's water content and in-situ fluid
+    density (:class:`~redoxgibbs.speciation.solver.SpeciationResult`)."""
     db = default_database() if db is None else db
     names = sorted({s for x in reactions for s in x.reaction.species})
     nu = np.zeros((len(names), len(reactions)))
@@ -208,12 +211,10 @@ def insitu_energetics(result, reactions, db=None, minimum_energy_kJ=DEFAULT_MINI
     flag_names = list(props.flags)
     flag_any = np.stack([(props.flags[k].astype(float) @ (nu != 0)) > 0 for k in flag_names], axis=1)
     flag_text = _join_flags(_joined_labels(flag_any, flag_names), result.sample_flags()[:, None])
-    n = len(result.samples)
     return InsituEnergetics(
         samples=result.samples, reactions=list(reactions), T_K=result.T_K, P_bar=result.P_bar,
         dG0=dG0, log10_Q=log_q, dGr=dGr, electrons=np.array([x.electrons for x in reactions]),
         limiting_species=limiting_names, energy_density_J_per_kg=E,
-        water_per_kg_solution=np.ones(n) if water_per_kg_solution is None else water_per_kg_solution,
-        density_kg_L=np.ones(n) if density_kg_L is None else density_kg_L,
+        water_per_kg_solution=result.water_per_kg_solution, density_kg_L=result.density_kg_L,
         missing_species=missing, minimum_energy_kJ=minimum_energy_kJ, flags=flag_text,
         failure=result.failure)

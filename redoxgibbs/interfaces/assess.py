@@ -6,10 +6,9 @@ from dataclasses import dataclass
 import numpy as np
 import pandas as pd
 
-from ..energetics.insitu import insitu_energetics
-from ..energetics.power import power_per_cell_W, power_per_volume
+from ..energetics.power import power_per_cell_W
+from ..pipeline.evaluate import evaluate
 from ..species.database import default_database
-from ..speciation.solver import speciate
 from .scenario import load_scenario
 
 __all__ = ["Assessment", "run_assessment"]
@@ -30,13 +29,14 @@ def _progress(step, total, text, quiet):
         print(f"[{step}/{total}] {text}", file=sys.stderr, flush=True)
 
 
-def _power_frames(scenario, energetics, T_K, rho):
+def _power_frames(scenario, ev):
     """Results per site and per supply model of that site (sites in order, each site's supply
-    models in order): the energetics rows of its samples with power and cell numbers."""
-    base = energetics.to_frame(scenario.per_species)
+    models in order): the evaluation's rows of its samples, with power and that site's cells."""
+    base = ev.energetics.to_frame(scenario.per_species)
     base.insert(0, "site", np.repeat(scenario.site_of_samples(), len(scenario.reactions)))
     units, r = scenario.power_units, len(scenario.reactions)
-    power = {}
+    index = {x.describe(): k for k, x in enumerate(ev.supplies)}
+    T_K, rho = ev.speciation.T_K, ev.energetics.density_kg_L
     frames = []
     for site in scenario.sites:
         rows = site.rows
@@ -48,11 +48,8 @@ def _power_frames(scenario, energetics, T_K, rho):
                 for col in (units.volume_column, units.mass_column, "cells_per_m3_low", "cells_per_m3_high"):
                     frame[col] = np.nan
             else:
-                key = supply.describe()
-                if key not in power:
-                    power[key] = power_per_volume(supply, energetics)   # W/m3, every sample once
-                P = power[key][rows]
-                frame["supply"] = key
+                P = ev.power_W_per_m3[index[supply.describe()]][rows]
+                frame["supply"] = supply.describe()
                 frame[units.volume_column] = P.ravel() * units.volume_factor
                 frame[units.mass_column] = (P / (rho[rows, None] * 1000.0)).ravel() * units.mass_factor
                 frame["cells_per_m3_low"] = (P / high_W[:, None]).ravel()
@@ -66,23 +63,19 @@ def run_assessment(scenario_path, quiet=False):
     """Run a scenario file; returns an :class:`Assessment` (nothing is written here)."""
     db = default_database()
     scenario = load_scenario(scenario_path)
-    steps = 5 if scenario.mixing else 4
+    steps = 4 if scenario.mixing else 3
     _progress(1, steps, f"read scenario {scenario_path}", quiet)
     samples = scenario.sample_set
-    _progress(2, steps, f"speciating {len(samples)} samples ({scenario.activity_model})", quiet)
-    result = speciate(samples, scenario.activity_model)
-    _progress(3, steps, f"Gibbs energies of {len(scenario.reactions)} reactions", quiet)
-    W, rho = samples.water_fraction_and_density(db)
-    energetics = insitu_energetics(result, scenario.reactions, db=db,
-                                   minimum_energy_kJ=scenario.minimum_energy_kJ,
-                                   gas_fugacity=samples.gas_fugacity_bar,
-                                   water_per_kg_solution=W, density_kg_L=rho)
-    n_supplies = len({x.describe() for site in scenario.sites for x in site.supplies})
-    _progress(4, steps, f"power and cells for {n_supplies} supply models", quiet)
-    frames = _power_frames(scenario, energetics, result.T_K, rho)
+    _progress(2, steps, f"speciating {len(samples)} samples ({scenario.activity_model}) and the Gibbs "
+                        f"energies of {len(scenario.reactions)} reactions", quiet)
+    supplies = list({x.describe(): x for site in scenario.sites for x in site.supplies}.values())
+    ev = evaluate(samples, scenario.reactions, scenario.activity_model, supplies, scenario.cells,
+                  scenario.power_units, minimum_energy_kJ=scenario.minimum_energy_kJ, db=db)
+    _progress(3, steps, f"power and cells for {len(supplies)} supply models", quiet)
+    frames = _power_frames(scenario, ev)
     mixing = None
     if scenario.mixing:
-        from ..energetics.mixing import mixing_energetics
+        from ..pipeline.mixing import mixing_energetics
 
         m = scenario.mixing
         _progress(steps, steps, f"mixing {m['hydrothermal']} into {m['seawater']}", quiet)
@@ -90,4 +83,5 @@ def run_assessment(scenario_path, quiet=False):
                                    fractions=m.get("fractions"), temperatures_C=m.get("temperatures_C"),
                                    rule=m.get("temperature_rule", "enthalpy"),
                                    activity_model_name=scenario.activity_model, db=db)
-    return Assessment(scenario, samples, result, energetics, pd.concat(frames, ignore_index=True), mixing)
+    return Assessment(scenario, samples, ev.speciation, ev.energetics, pd.concat(frames, ignore_index=True),
+                      mixing)

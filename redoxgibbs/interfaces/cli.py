@@ -98,12 +98,11 @@ def _speciation(args):
 
 
 def _insitu(args):
-    samples = read_samples(args.samples)
-    result = speciate(samples, args.activity_model, pH_from_charge_balance=args.pH_from_charge_balance)
-    W, rho = samples.water_fraction_and_density(default_database())
-    energetics = insitu_energetics(result, resolve_reactions(args.reaction),
-                                   minimum_energy_kJ=args.minimum_energy, gas_fugacity=samples.gas_fugacity_bar,
-                                   water_per_kg_solution=W, density_kg_L=rho)
+    from ..pipeline.evaluate import evaluate
+
+    ev = evaluate(args.samples, resolve_reactions(args.reaction), args.activity_model,
+                  minimum_energy_kJ=args.minimum_energy, pH_from_charge_balance=args.pH_from_charge_balance)
+    result, energetics = ev.speciation, ev.energetics
     per_species = [default_database().resolve(s) for s in args.per_species or []]
     frame = energetics.to_frame(per_species)
     cols = ["sample", "reaction", "T_C", "dGr_kJ_per_mol", "dGr_kJ_per_mol_e",
@@ -174,7 +173,7 @@ def _demo(args):
 
 
 def _mix(args):
-    from ..energetics.mixing import mixing_energetics
+    from ..pipeline.mixing import mixing_energetics
     from .report import mixing_figure
 
     if (args.fractions is None) == (args.temperatures is None):

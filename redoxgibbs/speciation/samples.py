@@ -35,6 +35,7 @@ _MASS_UNITS = {"mg/l": ("per_litre", 1e-3), "ug/l": ("per_litre", 1e-6),
                "ppm": ("per_kg_solution", 1e-3), "ppb": ("per_kg_solution", 1e-6)}
 _GAS_UNITS = ("bar", "atm", "pa", "mpa", "kpa")
 SEAWATER_DENSITY_SLOPE = 0.73  # kg/L per kg/kg of dissolved solids, estimate stated in output
+WATER_DENSITY_25C_KG_L = 0.997047   # IAPWS-95 at 25 C, 1 bar
 
 
 def parse_column_header(header):
@@ -77,8 +78,18 @@ class SampleSet:
             density_kg_L=pick(self.density_kg_L), density_estimated=pick(self.density_estimated),
             notes=list(self.notes), problems=pick(self.problems))
 
+    def insitu_density_kg_L(self, W, water_density_kg_m3):
+        """Density of each fluid at its in-situ T, P [kg/L]: a measured (laboratory) density scaled
+        by the density of water at T, P over that at 25 C, 1 bar; otherwise the density of water at
+        T, P plus the salinity correction SEAWATER_DENSITY_SLOPE (1 - W) (stated estimate, about
+        1 % for seawater-like fluids)."""
+        rho_w = np.asarray(water_density_kg_m3, float) / 1000.0
+        return np.where(np.isnan(self.density_kg_L), rho_w + SEAWATER_DENSITY_SLOPE * (1 - W),
+                        self.density_kg_L * rho_w / WATER_DENSITY_25C_KG_L)
+
     def water_fraction_and_density(self, db):
-        """kg water per kg solution and density [kg/L] (measured, or estimated as on reading)."""
+        """kg water per kg solution and density [kg/L] at the laboratory, 25 C (measured, or
+        estimated as on reading)."""
         mass = sum(np.nan_to_num(m) * molar_mass_g_mol(db.record(s).elements) / 1000.0
                    for s, m in self.totals.items())
         W = 1.0 / (1.0 + mass)

@@ -61,6 +61,8 @@ class SpeciationResult:
     present: np.ndarray                 # bool (n, n_species): built only from measured components
     density_estimated: np.ndarray       # per-litre units converted with an estimated density, (n,)
     failure: np.ndarray = None          # per sample: why it could not be computed ('' if it was)
+    water_per_kg_solution: np.ndarray = None   # kg of water per kg of solution, (n,)
+    density_kg_L: np.ndarray = None     # fluid density at in-situ T, P, (n,)
 
     def pool_molality(self, species):
         """Amount of ``species`` the sample's pools allow [mol/kg water], (n,).
@@ -384,7 +386,7 @@ def _solve_samples(s, totals, system, masters, gas_masters, model, charge_target
         eps = dielectric_johnson_norton_1991(T_K, rho)[0]
         A, B = debye_hueckel_A(T_K, rho, eps), debye_hueckel_B(T_K, rho, eps)
         out = _newton(system, model, logK, A, B, T_K, totals, fixed, log_aH, charge_target, solve_H, start)
-        return out, logK_min
+        return out, logK_min, rho
 
     # stage 1: where pH was measured at another temperature, speciate there to fix the charge balance
     iterations = np.zeros(n, dtype=int)
@@ -393,15 +395,15 @@ def _solve_samples(s, totals, system, masters, gas_masters, model, charge_target
     if shifted.any():
         P_lab = psat_convention_bar(s.pH_T_K)
         # laboratory states are few and distinct: always the exact water path
-        (m, lg, I, law, x, its, ok), _ = stage(s.pH_T_K, P_lab, -s.pH, np.zeros(n), np.zeros(n, bool),
-                                               water=water_state)
+        (m, lg, I, law, x, its, ok), _, _ = stage(s.pH_T_K, P_lab, -s.pH, np.zeros(n), np.zeros(n, bool),
+                                                  water=water_state)
         charge_target = np.where(shifted, m @ system.charge, charge_target)
         iterations += np.where(shifted, its, 0)
         converged &= ok | ~shifted
         start = (x, lg, law)   # the in-situ solve starts from the laboratory one
-    (m, lg, I, law, x, its, ok), logK_min = stage(s.T_K, s.P_bar, np.where(solve_H, np.nan, -s.pH),
-                                                  charge_target, solve_H, start=start)
-    return m, lg, I, law, x[:, k], iterations + its, converged & ok, logK_min
+    (m, lg, I, law, x, its, ok), logK_min, rho = stage(s.T_K, s.P_bar, np.where(solve_H, np.nan, -s.pH),
+                                                       charge_target, solve_H, start=start)
+    return m, lg, I, law, x[:, k], iterations + its, converged & ok, logK_min, rho
 
 
 def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, db=None,
@@ -432,22 +434,34 @@ def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, 
     charge_target = np.zeros(n) if charge_balance_target is None else np.asarray(charge_balance_target, float)
     shifted = ~missing_pH & (np.abs(s.pH_T_K - s.T_K) > 1e-9)
     failure = s.problems.copy()
-    todo = failure == ""
-    failure[todo] = _water_problems(s.T_K[todo], s.P_bar[todo], water_state)
-    lab = todo & shifted & (failure == "")
-    if lab.any():
-        lab_problems = _water_problems(s.pH_T_K[lab], psat_convention_bar(s.pH_T_K[lab]), water_state)
-        failure[lab] = np.where(lab_problems != "", "pH temperature: " + lab_problems.astype(str), "")
-    ok = failure == ""
     m = np.full((n, len(system.species)), np.nan)
     lg, I, law, pH = m.copy(), np.full(n, np.nan), np.full(n, np.nan), np.full(n, np.nan)
+    rho_w = np.full(n, np.nan)
     iterations = np.zeros(n, dtype=int)
     logK_min = np.full((n, len(system.minerals)), np.nan)
-    if ok.any():
+
+    def solve(ok):
         sub = s if ok.all() else s.subset(ok)
-        out = _solve_samples(sub, totals[ok], system, masters, gas_masters, model, charge_target[ok],
-                             (missing_pH | shifted)[ok], shifted[ok], water, db)
-        m[ok], lg[ok], I[ok], law[ok], xH, iterations[ok], converged, logK_min[ok] = out
+        return _solve_samples(sub, totals[ok], system, masters, gas_masters, model, charge_target[ok],
+                              (missing_pH | shifted)[ok], shifted[ok], water, db)
+
+    ok = failure == ""
+    out = None
+    if ok.any():
+        try:
+            out = solve(ok)
+        except OutOfValidityError:
+            # some state is not liquid water: name which (one water evaluation per distinct state,
+            # only on this path) and solve the others
+            failure[ok] = _water_problems(s.T_K[ok], s.P_bar[ok], water_state)
+            lab = ok & shifted & (failure == "")
+            if lab.any():
+                lab_problems = _water_problems(s.pH_T_K[lab], psat_convention_bar(s.pH_T_K[lab]), water_state)
+                failure[lab] = np.where(lab_problems != "", "pH temperature: " + lab_problems.astype(str), "")
+            ok = failure == ""
+            out = solve(ok) if ok.any() else None
+    if out is not None:
+        m[ok], lg[ok], I[ok], law[ok], xH, iterations[ok], converged, logK_min[ok], rho_w[ok] = out
         pH[ok] = -xH
         lost = np.flatnonzero(ok)[~converged]
         failure[lost] = (f"speciation did not converge in {MAX_ITERATIONS} iterations; check the "
@@ -455,8 +469,9 @@ def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, 
         frozen = _frozen_samples(s, law, ok)
         failure[frozen != ""] = frozen[frozen != ""]
     failed = failure != ""
-    for arr in (m, lg, law, I, pH, logK_min):
+    for arr in (m, lg, law, I, pH, logK_min, rho_w):
         arr[failed] = np.nan
+    W, _ = s.water_fraction_and_density(db)
     present, nonzero, unmeasured, zero = _presence(system, totals, gas_masters)
     present = present & ~failed[:, None]
     m = np.where(nonzero | failed[:, None], m, 0.0)
@@ -472,4 +487,5 @@ def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, 
         composition=system.nu,
         minerals=system.minerals, saturation_index=si, iterations=iterations,
         activity_model=model.name, beyond_model_validity=I > model.I_max, present=present,
-        density_estimated=s.density_estimated, failure=failure)
+        density_estimated=s.density_estimated, failure=failure, water_per_kg_solution=W,
+        density_kg_L=s.insitu_density_kg_L(W, rho_w))

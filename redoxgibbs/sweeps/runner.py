@@ -3,7 +3,7 @@
 A sweep varies columns of one base sample (any sample-table column: T, P, pH, a total, ...) and
 fields of the supply model, named ``supply:FIELD`` (e.g. ``supply:flux_kg_per_s``); or, with two
 end-members given, the mixing fraction ``mixing:fraction`` (each mixture re-speciated with pH
-from charge balance, as in redoxgibbs.energetics.mixing).
+from charge balance, as in redoxgibbs.pipeline.mixing).
 Monte Carlo inputs carry a distribution (normal, lognormal, uniform); grid inputs a list of
 values (their product is swept). Work runs in chunks; each chunk's draws come from its own seed,
 numpy's SeedSequence of (seed, chunk index), so results do not depend on who computes a chunk.
@@ -23,9 +23,9 @@ import numpy as np
 import pandas as pd
 
 from ..energetics.catalog import NamedReaction, resolve_reactions
-from ..energetics.insitu import insitu_energetics
-from ..energetics.power import CellRequirement, PowerUnits, power_per_cell_W, power_per_volume
+from ..energetics.power import CellRequirement, PowerUnits
 from ..errors import InputError
+from ..pipeline.evaluate import evaluate
 from ..reactions.reaction import Reaction
 from ..species.database import default_database
 from ..speciation.mixing import mixture_samples
@@ -174,37 +174,32 @@ def run_chunk(spec, index, out_dir):
                            (max(samples.P_bar.min() - 20.0, 1.0), samples.P_bar.max() + 20.0))
     elif spec.water != "exact":
         raise InputError(f"sweep: water = {spec.water!r}; use 'exact' or 'tabulated'")
-    result = speciate(samples, spec.activity_model, db=db, water=water,
-                      pH_from_charge_balance=spec.mixing is not None, charge_balance_target=charge_target)
+    supply_inputs = {c[7:]: v[:, None] for c, v in drawn.items() if c.startswith("supply:")}
+    if supply_inputs and not spec.supplies:
+        raise InputError("sweep: supply inputs need a [[supply]] model in the scenario")
+    unknown = set(supply_inputs) - set().union(*(vars(x) for x in spec.supplies))
+    if unknown:
+        raise InputError(f"sweep: supply fields {sorted(unknown)} are unknown")
+    supplies = [replace(x, **{k: v for k, v in supply_inputs.items() if k in vars(x)}) for x in spec.supplies]
     reactions = _rebuild(spec.reactions, db)
-    W, rho = samples.water_fraction_and_density(db)
-    e = insitu_energetics(result, reactions, db=db, gas_fugacity=samples.gas_fugacity_bar,
-                          water_per_kg_solution=W, density_kg_L=rho, water=water)
+    ev = evaluate(samples, reactions, spec.activity_model, supplies, spec.cells, spec.power_units,
+                  pH_from_charge_balance=spec.mixing is not None, charge_balance_target=charge_target,
+                  water=water, db=db)
+    e, result = ev.energetics, ev.speciation
     out = pd.DataFrame({"draw": np.arange(start, start + len(frame))})
     for c, v in drawn.items():
         out[f"input:{c}"] = v
     out["pH_insitu"] = result.pH
     out["failure"] = result.failure
-    supply_inputs = {c[7:]: v[:, None] for c, v in drawn.items() if c.startswith("supply:")}
-    if supply_inputs and not spec.supplies:
-        raise InputError("sweep: supply inputs need a [[supply]] model in the scenario")
-    powers = []
-    for supply in spec.supplies:
-        given = {k: v for k, v in supply_inputs.items() if k in vars(supply)}
-        powers.append(power_per_volume(replace(supply, **given), e))
-    unknown = set(supply_inputs) - set().union(*(vars(x) for x in spec.supplies))
-    if unknown:
-        raise InputError(f"sweep: supply fields {sorted(unknown)} are unknown")
-    low_W, high_W = power_per_cell_W(spec.cells, result.T_K)
     units = spec.power_units
     for r, x in enumerate(reactions):
         out[f"{x.name}|dGr_kJ_per_mol"] = e.dGr[:, r] / 1e3
         out[f"{x.name}|energy_density_J_per_kg"] = e.energy_density_J_per_kg[:, r]
-        for supply, power in zip(spec.supplies, powers):
+        for supply, power in zip(spec.supplies, ev.power_W_per_m3):
             tag = "" if len(spec.supplies) == 1 else f" [{supply.describe()}]"
             out[f"{x.name}|{units.volume_column}{tag}"] = power[:, r] * units.volume_factor
-            out[f"{x.name}|cells_per_m3_low{tag}"] = power[:, r] / high_W
-            out[f"{x.name}|cells_per_m3_high{tag}"] = power[:, r] / low_W
+            out[f"{x.name}|cells_per_m3_low{tag}"] = power[:, r] / ev.cells_W_high
+            out[f"{x.name}|cells_per_m3_high{tag}"] = power[:, r] / ev.cells_W_low
     path = Path(out_dir) / _chunk_name(index)
     tmp = path.with_name(f"{path.stem}.{os.getpid()}.{uuid.uuid4().hex}.partial")   # unique per writer
     out.to_parquet(tmp, index=False)

@@ -9,12 +9,12 @@ of hydrothermal fluid (divided by its mass fraction f).
 import numpy as np
 import pandas as pd
 
-from ..species.database import default_database
 from ..errors import InputError
+from ..species.database import default_database
 from ..speciation.mixing import end_member_row, fraction_for_temperature, mixture_samples
 from ..speciation.samples import SampleSet, read_samples
 from ..speciation.solver import speciate
-from .insitu import insitu_energetics
+from .evaluate import evaluate
 
 __all__ = ["mixing_energetics"]
 
@@ -37,10 +37,10 @@ def mixing_energetics(samples, hydrothermal, seawater, reactions, fractions=None
         fractions = fraction_for_temperature(np.asarray(temperatures_C, float) + 273.15, s.T_K[a],
                                              s.T_K[b], float(s.P_bar[a]), rule)
     mixed, q, W = mixture_samples(s, hydrothermal, seawater, fractions, db, ends.charge_imbalance, rule)
-    result = speciate(mixed, activity_model_name, pH_from_charge_balance=True, db=db,
-                      charge_balance_target=q)
-    energetics = insitu_energetics(result, reactions, db=db, water_per_kg_solution=W)
-    frame = energetics.to_frame()
+    ev = evaluate(mixed, reactions, activity_model_name, pH_from_charge_balance=True,
+                  charge_balance_target=q, db=db)
+    result = ev.speciation
+    frame = ev.energetics.to_frame()
     f = np.repeat(np.asarray(fractions, float), len(reactions))
     frame.insert(1, "hydrothermal_fraction", f)
     frame["pH_insitu"] = np.repeat(result.pH, len(reactions))
