@@ -56,3 +56,17 @@ def test_tidy_table_and_dataset():
     assert ds["dGr_kJ_per_mol"].sel(sample="hot").item() == pytest.approx(ev.energetics.dGr[0, 0] / 1e3)
     np.testing.assert_allclose(ds["power_W_per_m3"].sel(supply=supplies[0].describe()).values,
                                ev.power_W_per_m3[0])
+
+
+def test_every_flag_is_named_once_and_documented():
+    from pathlib import Path
+
+    from redoxgibbs.flags import FLAGS, ionic_strength_flag
+    from redoxgibbs.species.properties import standard_properties
+
+    props = standard_properties(["HCO3-", "CaSO4(aq)"], np.array([298.15]), np.array([1.0]))
+    assert set(props.flags) <= set(FLAGS)
+    assert ionic_strength_flag("MODEL") in FLAGS
+    guide = (Path(__file__).resolve().parent.parent / "DEVELOPERS.md").read_text()
+    for name in FLAGS:
+        assert f"`{name}`" in guide, name

@@ -245,3 +245,13 @@ def test_water_table_error_bound_against_the_exact_path():
     assert np.max(np.abs(G_table - G_exact) / (8.314462618 * T * np.log(10))) < 1e-6
     with pytest.raises(OutOfValidityError, match="outside the water table"):
         table(500.0, 100.0)
+
+
+def test_the_critical_point_is_flagged():
+    # there compressibility and heat capacity diverge (the HKF dH0 of water's dissociation came out
+    # at -237,009 kJ/mol with no word); 2 K and 5 bar around it are flagged
+    from redoxgibbs.reactions.reaction import reaction_properties
+
+    p = reaction_properties("H2O(l) = H+ + OH-", [373.946, 380.0], [220.65, 300.0])
+    assert p.flags["near_critical_point"].tolist() == [True, False]
+    assert "near_critical_point" in p.to_frame()["flags"].iloc[0]

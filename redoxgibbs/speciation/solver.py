@@ -14,12 +14,12 @@ import numpy as np
 import pandas as pd
 
 from ..activities.models import activity_model, ionic_strength, log10_water_activity
-from ..errors import InputError
+from ..errors import InputError, OutOfValidityError
+from ..flags import ionic_strength_flag
 from ..species.database import R_J_MOL_K, default_database
 from ..species.properties import standard_properties
 from ..water.born import debye_hueckel_A, debye_hueckel_B
 from ..water.dielectric import dielectric_johnson_norton_1991
-from ..errors import OutOfValidityError
 from ..water.ice import freezing_temperature
 from ..water.iapws95 import psat_convention_bar, water_state
 from ..water.melting import T_TRIPLE_K
@@ -94,7 +94,7 @@ class SpeciationResult:
     def sample_flags(self):
         """Per sample, the comma-joined validity flags of the speciation ('' where none)."""
         flags = np.full(len(self.samples), "", dtype=object)
-        flags[self.beyond_model_validity] = f"ionic_strength_beyond_{self.activity_model}_range"
+        flags[self.beyond_model_validity] = ionic_strength_flag(self.activity_model)
         return flags
 
     def to_long_frame(self):

@@ -9,6 +9,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from ..errors import OutOfValidityError
+from ..flags import BELOW_0C, FORMATION_ENTHALPY_MISSING, LOW_DENSITY, NEAR_CRITICAL, OUTSIDE_FORMATION_RANGE
 from ..standard_state.formation import vant_hoff_reaction_entropy, vant_hoff_reaction_gibbs
 from ..standard_state.gas import apparent_gas_properties, nasa7_coefficients
 from ..standard_state.gfunction import g_function_shock_1992
@@ -18,7 +19,7 @@ from ..standard_state.mineral import maier_kelley_properties
 from ..standard_state.solvent import apparent_water_properties
 from ..water.born import born_functions, reference_born_functions
 from ..water.dielectric import dielectric_along_TP
-from ..water.iapws95 import water_state
+from ..water.iapws95 import near_critical, water_state
 from .database import default_database
 
 __all__ = ["StandardProperties", "standard_properties", "VALIDITY", "validate_states"]
@@ -150,9 +151,9 @@ def _formation_block(db, formation, index, T, arrays, flags, properties):
         f[:, fcols] = (f[:, bcols].astype(float) @ np.abs(C)) > 0
     T_min, T_max = np.array([e[3] for e in expanded]).T
     T_C = (T - 273.15)[:, None]
-    flags["outside_formation_T_range"][:, fcols] |= (T_C < T_min - 1e-9) | (T_C > T_max)
+    flags[OUTSIDE_FORMATION_RANGE][:, fcols] |= (T_C < T_min - 1e-9) | (T_C > T_max)
     missing = np.array([e[4] for e in expanded])
-    flags["formation_enthalpy_missing"][:, fcols] |= missing & np.any(T != 298.15)
+    flags[FORMATION_ENTHALPY_MISSING][:, fcols] |= missing & np.any(T != 298.15)
 
 
 def standard_properties(names, T_K, P_bar, db=None, properties=ALL_PROPERTIES, water=water_state):
@@ -175,18 +176,19 @@ def standard_properties(names, T_K, P_bar, db=None, properties=ALL_PROPERTIES, w
     index = {n: i for i, n in enumerate(everything)}
     n, m = T.size, len(everything)
     G, H, S, Cp, V = (np.zeros((n, m)) for _ in range(5))
-    flags = {"water_density_below_0.35_g_cm3": np.zeros((n, m), bool),
-             "below_0C_extrapolated": np.zeros((n, m), bool),
-             "outside_formation_T_range": np.zeros((n, m), bool),
-             "formation_enthalpy_missing": np.zeros((n, m), bool)}
+    flags = {name: np.zeros((n, m), bool)
+             for name in (LOW_DENSITY, BELOW_0C, OUTSIDE_FORMATION_RANGE, FORMATION_ENTHALPY_MISSING, NEAR_CRITICAL)}
     records = [db.record(x) for x in everything]
     hkf = [r for r in records if r.model == "hkf"]
     if hkf:
         cols = [index[r.name] for r in hkf]
         for target, value in zip((G, H, S, Cp, V), _hkf_block(hkf, water, T, P, properties)):
             target[:, cols] = value
-        flags["water_density_below_0.35_g_cm3"][:, cols] = (water.density_kg_m3 < 350.0)[:, None]
-        flags["below_0C_extrapolated"][:, cols] = (T < 273.15)[:, None]
+        flags[LOW_DENSITY][:, cols] = (water.density_kg_m3 < 350.0)[:, None]
+        flags[BELOW_0C][:, cols] = (T < 273.15)[:, None]
+    if needs_water:
+        water_cols = [index[r.name] for r in records if r.model in ("hkf", "iapws95")]
+        flags[NEAR_CRITICAL][:, water_cols] = near_critical(T, P)[:, None]
     for r in records:
         j = index[r.name]
         if r.model == "iapws95":

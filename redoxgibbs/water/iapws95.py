@@ -39,6 +39,7 @@ __all__ = [
     "SUPERCOOLED_LIMIT_K",
     "liquid_density_kg_m3",
     "specific_properties",
+    "near_critical",
 ]
 
 T_CRITICAL_K = helmholtz.T_C    # IAPWS-95
@@ -274,6 +275,18 @@ def _evaluate(T, P_Pa, caloric=True):
     M = M_WATER_KG_PER_MOL
     dalpha = _dalpha_dT(T, P_Pa, rho, alpha) if caloric else np.full(T.shape, np.nan)
     return np.stack([rho, g * M + dH - T * dS, h * M + dH, S * M + dS, cp * M, alpha, beta, dalpha])
+
+
+#: Half-widths of the box around the critical point within which states are flagged: there the
+#: second derivatives of water's properties (compressibility, heat capacity, the Born function X)
+#: diverge, and so do the HKF enthalpies and heat capacities built on them.
+NEAR_CRITICAL_K, NEAR_CRITICAL_BAR = 2.0, 5.0
+
+
+def near_critical(T_K, P_bar):
+    """True where (T, P) lies within NEAR_CRITICAL_K and NEAR_CRITICAL_BAR of the critical point."""
+    return (np.abs(np.asarray(T_K) - T_CRITICAL_K) <= NEAR_CRITICAL_K) & \
+        (np.abs(np.asarray(P_bar) - P_CRITICAL_BAR) <= NEAR_CRITICAL_BAR)
 
 
 def _refuse_gas_like(T, P_Pa, rho):

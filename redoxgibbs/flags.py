@@ -1,0 +1,37 @@
+"""The validity flags, named once: every table and report carries these names in its ``flags``
+column (comma-joined), and nothing else.
+
+Flags mark results computed outside the range where a model was fitted or is trusted; they never
+change a number. Refusals (states where water is ice, vapour or gas-like; samples colder than
+their freezing point) are not flags: those samples carry a ``failure`` instead.
+"""
+
+__all__ = ["FLAGS", "LOW_DENSITY", "BELOW_0C", "OUTSIDE_FORMATION_RANGE", "FORMATION_ENTHALPY_MISSING",
+           "NEAR_CRITICAL", "ionic_strength_flag"]
+
+LOW_DENSITY = "water_density_below_0.35_g_cm3"
+BELOW_0C = "below_0C_extrapolated"
+OUTSIDE_FORMATION_RANGE = "outside_formation_T_range"
+FORMATION_ENTHALPY_MISSING = "formation_enthalpy_missing"
+NEAR_CRITICAL = "near_critical_point"
+
+
+def ionic_strength_flag(model_name):
+    """The flag of samples whose ionic strength lies beyond the activity model's stated range."""
+    return f"ionic_strength_beyond_{model_name}_range"
+
+
+#: name -> meaning (the one list the documentation shows)
+FLAGS = {
+    LOW_DENSITY: "water density below 0.35 g/cm3, below the range the HKF g-function was fitted to "
+                 "(Shock et al. 1992)",
+    BELOW_0C: "below 0 C: aqueous standard states extrapolated below the HKF equations' range",
+    OUTSIDE_FORMATION_RANGE: "a formation-reaction species outside the temperatures where constant "
+                             "reaction enthalpy is trusted (its T_min_C to T_max_C)",
+    FORMATION_ENTHALPY_MISSING: "a formation-reaction species whose source gives no reaction enthalpy, "
+                                "away from 25 C",
+    NEAR_CRITICAL: "within 2 K and 5 bar of water's critical point, where enthalpies, entropies and heat "
+                   "capacities of aqueous species diverge (Gibbs energies stay finite)",
+    ionic_strength_flag("MODEL"): "ionic strength beyond the activity model's stated range (Davies 0.5, "
+                                  "B-dot 1 mol/kg)",
+}
