@@ -80,6 +80,7 @@ class InsituEnergetics:
     minimum_energy_kJ: float
     flags: np.ndarray               # object (n, r): caveats of the standard-state data
     failure: np.ndarray             # object (n,): why a sample could not be computed ('' if it was)
+    flags_of_sample: np.ndarray     # object (n,): the flags of any of the sample's reactions
 
     @property
     def dGr_per_electron(self):
@@ -211,10 +212,12 @@ def insitu_energetics(result, reactions, db=None, minimum_energy_kJ=DEFAULT_MINI
     flag_names = list(props.flags)
     flag_any = np.stack([(props.flags[k].astype(float) @ (nu != 0)) > 0 for k in flag_names], axis=1)
     flag_text = _join_flags(_joined_labels(flag_any, flag_names), result.sample_flags()[:, None])
+    flag_sample = _join_flags(_joined_labels(flag_any.any(axis=2)[:, :, None], flag_names)[:, 0],
+                              result.sample_flags())
     return InsituEnergetics(
         samples=result.samples, reactions=list(reactions), T_K=result.T_K, P_bar=result.P_bar,
         dG0=dG0, log10_Q=log_q, dGr=dGr, electrons=np.array([x.electrons for x in reactions]),
         limiting_species=limiting_names, energy_density_J_per_kg=E,
         water_per_kg_solution=result.water_per_kg_solution, density_kg_L=result.density_kg_L,
         missing_species=missing, minimum_energy_kJ=minimum_energy_kJ, flags=flag_text,
-        failure=result.failure)
+        flags_of_sample=flag_sample, failure=result.failure)

@@ -190,6 +190,7 @@ def run_chunk(spec, index, out_dir):
     for c, v in drawn.items():
         out[f"input:{c}"] = v
     out["pH_insitu"] = result.pH
+    out["flags"] = e.flags_of_sample
     out["failure"] = result.failure
     units = spec.power_units
     for r, x in enumerate(reactions):
@@ -404,5 +405,5 @@ def grid_dataset(spec, out_dir):
     shape = [len(spec.inputs[d].values) for d in dims]
     coords = {d: list(spec.inputs[d].values) for d in dims}
     data = {c: (dims, frame[c].to_numpy().reshape(shape)) for c in frame.columns
-            if "|" in c or c in ("pH_insitu", "failure")}
+            if "|" in c or c in ("pH_insitu", "flags", "failure")}
     return xr.Dataset(data, coords=coords)
