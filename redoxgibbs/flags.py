@@ -7,13 +7,14 @@ their freezing point) are not flags: those samples carry a ``failure`` instead.
 """
 
 __all__ = ["FLAGS", "LOW_DENSITY", "BELOW_0C", "OUTSIDE_FORMATION_RANGE", "FORMATION_ENTHALPY_MISSING",
-           "NEAR_CRITICAL", "ionic_strength_flag"]
+           "NEAR_CRITICAL", "ALKALINITY_NOT_USED", "ionic_strength_flag"]
 
 LOW_DENSITY = "water_density_below_0.35_g_cm3"
 BELOW_0C = "below_0C_extrapolated"
 OUTSIDE_FORMATION_RANGE = "outside_formation_T_range"
 FORMATION_ENTHALPY_MISSING = "formation_enthalpy_missing"
 NEAR_CRITICAL = "near_critical_point"
+ALKALINITY_NOT_USED = "alkalinity_not_used"
 
 
 def ionic_strength_flag(model_name):
@@ -32,6 +33,13 @@ FLAGS = {
                                 "away from 25 C",
     NEAR_CRITICAL: "within 2 K and 5 bar of water's critical point, where enthalpies, entropies and heat "
                    "capacities of aqueous species diverge (Gibbs energies stay finite)",
+    ALKALINITY_NOT_USED: "an alkalinity was given with a pH: the pH is used, the alkalinity only where "
+                         "the pH is blank",
+    "below_detection:SPECIES": "the species' cell was reported below the detection limit and taken by "
+                               "the chosen policy (not measured, the limit, or half of it)",
+    "assumed:SPECIES": "the species' amount is an assumed value ('assumed X' in the table)",
+    "assumed_air_saturated:SPECIES": "N2(aq) or O2(aq) taken at saturation with air at 1 atm and the sample's "
+                                     "temperature (salting-out neglected)",
     ionic_strength_flag("MODEL"): "ionic strength beyond the activity model's stated range (Davies 0.5, "
                                   "B-dot 1 mol/kg)",
 }

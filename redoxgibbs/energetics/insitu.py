@@ -77,6 +77,7 @@ class InsituEnergetics:
     water_per_kg_solution: np.ndarray   # (n,) kg water per kg solution
     density_kg_L: np.ndarray            # (n,)
     missing_species: np.ndarray     # object (n, r): comma-joined names without an activity
+    zero_species: np.ndarray        # object (n, r): species measured at zero, '(reactant)' or '(product)'
     minimum_energy_kJ: float
     flags: np.ndarray               # object (n, r): caveats of the standard-state data
     failure: np.ndarray             # object (n,): why a sample could not be computed ('' if it was)
@@ -108,7 +109,8 @@ class InsituEnergetics:
             "energy_density_J_per_L": (E * W * rho).ravel(),
             "exergonic": (self.dGr < 0).ravel(),
             "below_minimum_energy": (np.abs(self.dGr) < self.minimum_energy_kJ * 1e3).ravel(),
-            "missing_species": self.missing_species.ravel(), "flags": self.flags.ravel(),
+            "missing_species": self.missing_species.ravel(), "zero_species": self.zero_species.ravel(),
+            "flags": self.flags.ravel(),
             "failure": rep(self.failure)})
         for species in per_species:
             frame.insert(frame.columns.get_loc("dGr_kJ_per_mol_e") + 1, f"dGr_kJ_per_mol_{species}",
@@ -190,24 +192,27 @@ def insitu_energetics(result, reactions, db=None, minimum_energy_kJ=DEFAULT_MINI
     props = standard_properties(names, result.T_K, result.P_bar, db=db, properties=("G",), water=water)
     dG0 = props.G @ nu
     la, amounts = _activity_columns(result, names, db, gas_fugacity or {})
-    # measured zeros: with a zero reactant the reaction cannot run (dGr = +inf, no energy); with a
-    # zero product dGr is unbounded and is left undefined, named in missing_species
+    # measured zeros: with a reactant at zero the reaction cannot run (no energy); with a product at
+    # zero dGr is unbounded; both leave dGr undefined (never inf) and are named in zero_species
     zero = np.isneginf(la)
     dGr, log_q = gibbs_energy_kernel(dG0, np.where(np.isfinite(la), la, 0.0), nu, result.T_K)
     failed = result.failure != ""
-    missing_mask = (np.isnan(la)[:, :, None] & (nu[None] != 0)) | (zero[:, :, None] & (nu[None] > 0))
-    missing_mask &= ~failed[:, None, None]     # a failed sample says why in its own column
-    no_reactant = (zero[:, :, None] & (nu[None] < 0)).any(axis=1)
-    unknown = missing_mask.any(axis=1) | failed[:, None]
-    dGr = np.where(unknown, np.nan, np.where(no_reactant, np.inf, dGr))
-    log_q = np.where(unknown, np.nan, np.where(no_reactant, np.inf, log_q))
+    missing_mask = np.isnan(la)[:, :, None] & (nu[None] != 0) & ~failed[:, None, None]
+    zero_reactant = zero[:, :, None] & (nu[None] < 0)
+    zero_product = zero[:, :, None] & (nu[None] > 0)
+    no_reactant = zero_reactant.any(axis=1)
+    undefined = missing_mask.any(axis=1) | zero_product.any(axis=1) | no_reactant | failed[:, None]
+    dGr = np.where(undefined, np.nan, dGr)
+    log_q = np.where(undefined, np.nan, log_q)
     consumed = np.where(nu < 0, -nu, 0.0)
     for j, name in enumerate(names):
         if name in NOT_LIMITING or db.record(name).state != "aq":
             consumed[j] = 0.0
-    E, limiting = energy_density_kernel(np.nan_to_num(dGr, nan=0.0, posinf=0.0), amounts, consumed)
-    E = np.where(unknown, np.nan, E)
-    limiting_names = np.where((limiting >= 0) & ~unknown, np.array(names + [""], dtype=object)[limiting], "")
+    E, limiting = energy_density_kernel(np.nan_to_num(dGr, nan=0.0), amounts, consumed)
+    E = np.where(undefined & ~(no_reactant & ~missing_mask.any(axis=1) & ~failed[:, None]), np.nan, E)
+    limiting_names = np.where((limiting >= 0) & ~undefined, np.array(names + [""], dtype=object)[limiting], "")
+    zeros = _join_flags(_joined_labels(zero_reactant, [f"{x} (reactant)" for x in names]),
+                        _joined_labels(zero_product, [f"{x} (product)" for x in names]))
     missing = _joined_labels(missing_mask, names)
     flag_names = list(props.flags)
     flag_any = np.stack([(props.flags[k].astype(float) @ (nu != 0)) > 0 for k in flag_names], axis=1)
@@ -219,5 +224,5 @@ def insitu_energetics(result, reactions, db=None, minimum_energy_kJ=DEFAULT_MINI
         dG0=dG0, log10_Q=log_q, dGr=dGr, electrons=np.array([x.electrons for x in reactions]),
         limiting_species=limiting_names, energy_density_J_per_kg=E,
         water_per_kg_solution=result.water_per_kg_solution, density_kg_L=result.density_kg_L,
-        missing_species=missing, minimum_energy_kJ=minimum_energy_kJ, flags=flag_text,
+        missing_species=missing, zero_species=zeros, minimum_energy_kJ=minimum_energy_kJ, flags=flag_text,
         flags_of_sample=flag_sample, failure=result.failure)

@@ -12,7 +12,7 @@ from ..energetics.insitu import DEFAULT_MINIMUM_ENERGY_KJ, insitu_energetics
 from ..errors import RedoxGibbsError
 from ..reactions.reaction import Reaction, reaction_properties
 from ..species.database import default_database
-from ..speciation.samples import read_samples
+from ..speciation.samples import BELOW_DETECTION_POLICIES, read_samples
 from ..speciation.solver import speciate, species_in_samples
 from .report import SCREENING_NOTE
 
@@ -70,7 +70,8 @@ def _stdstate(args):
 
 
 def _speciation(args):
-    result = speciate(args.samples, args.activity_model, pH_from_charge_balance=args.pH_from_charge_balance)
+    result = speciate(read_samples(args.samples, below_detection=args.below_detection), args.activity_model,
+                      pH_from_charge_balance=args.pH_from_charge_balance)
     if args.format == "csv":
         sys.stdout.write(result.to_long_frame().to_csv(index=False, float_format="%.6g"))
         return _failures(result.samples, result.failure)
@@ -100,7 +101,8 @@ def _speciation(args):
 def _insitu(args):
     from ..pipeline.evaluate import evaluate
 
-    ev = evaluate(args.samples, resolve_reactions(args.reaction), args.activity_model,
+    ev = evaluate(read_samples(args.samples, below_detection=args.below_detection),
+                  resolve_reactions(args.reaction), args.activity_model,
                   minimum_energy_kJ=args.minimum_energy, pH_from_charge_balance=args.pH_from_charge_balance)
     result, energetics = ev.speciation, ev.energetics
     per_species = [default_database().resolve(s) for s in args.per_species or []]
@@ -179,7 +181,7 @@ def _mix(args):
     if (args.fractions is None) == (args.temperatures is None):
         raise RedoxGibbsError("mix: give either --fractions or --temperatures")
     frame = mixing_energetics(
-        args.samples, args.hydrothermal, args.seawater, resolve_reactions(args.reaction),
+        read_samples(args.samples, below_detection=args.below_detection), args.hydrothermal, args.seawater, resolve_reactions(args.reaction),
         fractions=None if args.fractions is None else _number_list(args.fractions, "fractions"),
         temperatures_C=None if args.temperatures is None else _number_list(args.temperatures, "temperatures"),
         rule=args.temperature_rule, activity_model_name=args.activity_model)
@@ -222,6 +224,8 @@ def _parser():
     spc = sub.add_parser("speciation", help="in-situ speciation of a table of fluid samples")
     spc.add_argument("samples", help="CSV: sample, T [degC], P [bar], pH, SPECIES [UNIT] columns")
     spc.add_argument("--activity-model", choices=("ideal", "davies", "bdot"), default="bdot")
+    spc.add_argument("--below-detection", choices=BELOW_DETECTION_POLICIES, default="not-measured",
+                     help="cells such as '<0.1', 'bdl', 'nd': not measured (default), at the limit, or half of it")
     spc.add_argument("--pH-from-charge-balance", action="store_true",
                      help="solve pH from charge balance where the pH cell is blank")
     spc.add_argument("--format", choices=("table", "csv"), default="table")
@@ -232,6 +236,8 @@ def _parser():
     ins.add_argument("--reaction", action="append", required=True,
                      help="a catalog name or a reaction string; repeat for several")
     ins.add_argument("--activity-model", choices=("ideal", "davies", "bdot"), default="bdot")
+    ins.add_argument("--below-detection", choices=BELOW_DETECTION_POLICIES, default="not-measured",
+                     help="cells such as '<0.1', 'bdl', 'nd': not measured (default), at the limit, or half of it")
     ins.add_argument("--pH-from-charge-balance", action="store_true")
     ins.add_argument("--minimum-energy", type=float, default=DEFAULT_MINIMUM_ENERGY_KJ,
                      help="kJ per mol of reaction below which |dGr| is flagged (default %(default)s)")
@@ -267,6 +273,8 @@ def _parser():
     mix.add_argument("--temperature-rule", choices=("enthalpy", "linear"), default="enthalpy")
     mix.add_argument("--reaction", action="append", required=True)
     mix.add_argument("--activity-model", choices=("ideal", "davies", "bdot"), default="bdot")
+    mix.add_argument("--below-detection", choices=BELOW_DETECTION_POLICIES, default="not-measured",
+                     help="cells such as '<0.1', 'bdl', 'nd': not measured (default), at the limit, or half of it")
     mix.add_argument("--plot", help="write the energy-against-temperature figure to this PNG/SVG file")
     mix.add_argument("--format", choices=("table", "csv"), default="table")
     mix.set_defaults(run=_mix)

@@ -133,7 +133,7 @@ def load_scenario(path):
     for site in data["sites"]:
         frame = _site_frame(site, path.parent)
         try:
-            sets.append(read_samples(frame, db=db))
+            sets.append(read_samples(frame, db=db, below_detection=data.get("below_detection", "not-measured")))
         except InputError as err:
             raise InputError(f"scenario: site {site['name']!r}: {err}") from None
         frames.append(frame.assign(site=site["name"]))
@@ -214,4 +214,5 @@ def sweep_spec(scenario):
                      supplies=tuple(site.supplies if site else scenario.supplies),
                      cells=site.cells if site else scenario.cells,
                      power_units=scenario.power_units,
-                     water=section.get("water", "exact"), mixing=mixing)
+                     water=section.get("water", "exact"), mixing=mixing,
+                     below_detection=scenario.raw.get("below_detection", "not-measured"))

@@ -100,6 +100,8 @@ SWEEP = {
 SCENARIO = {
     "title": Key("str", "report title"),
     "activity_model": Key("str", "activity model", choices=("ideal", "davies", "bdot")),
+    "below_detection": Key("str", "how cells below the detection limit ('<0.1', 'bdl', 'nd') are taken",
+                           choices=("not-measured", "detection-limit", "half-limit")),
     "minimum_energy_kJ_per_mol": Key("number", "smallest |dGr| a catabolism is taken to use [kJ/mol]",
                                      non_negative=True),
     "sites": Key("tables", "sites: each a sample table or one inline fluid", required=True, keys=SITE),

@@ -59,10 +59,17 @@ class SampleSet:
     density_estimated: np.ndarray
     notes: list = field(default_factory=list)
     problems: np.ndarray = None    # per sample: why it cannot be computed ('' where it can)
+    alkalinity_eq_kg: np.ndarray = None   # total alkalinity [eq per kg of water], NaN: not given
+    flags: np.ndarray = None       # per sample: input notes (values assumed or below detection)
 
     def __post_init__(self):
+        n = len(self.names)
         if self.problems is None:
-            self.problems = np.full(len(self.names), "", dtype=object)
+            self.problems = np.full(n, "", dtype=object)
+        if self.alkalinity_eq_kg is None:
+            self.alkalinity_eq_kg = np.full(n, np.nan)
+        if self.flags is None:
+            self.flags = np.full(n, "", dtype=object)
 
     def __len__(self):
         return len(self.names)
@@ -76,7 +83,8 @@ class SampleSet:
             pH=pick(self.pH), pH_T_K=pick(self.pH_T_K), totals={k: pick(v) for k, v in self.totals.items()},
             gas_fugacity_bar={k: pick(v) for k, v in self.gas_fugacity_bar.items()},
             density_kg_L=pick(self.density_kg_L), density_estimated=pick(self.density_estimated),
-            notes=list(self.notes), problems=pick(self.problems))
+            notes=list(self.notes), problems=pick(self.problems),
+            alkalinity_eq_kg=pick(self.alkalinity_eq_kg), flags=pick(self.flags))
 
     def insitu_density_kg_L(self, W, water_density_kg_m3):
         """Density of each fluid at its in-situ T, P [kg/L]: a measured (laboratory) density scaled
@@ -221,8 +229,13 @@ def _sample_names(column):
     return names
 
 
-def read_samples(source, db=None):
-    """Read a sample table (CSV path or DataFrame) into a :class:`SampleSet`, validating each cell."""
+def read_samples(source, db=None, below_detection="not-measured"):
+    """Read a sample table (CSV path or DataFrame) into a :class:`SampleSet`, validating each cell.
+
+    ``below_detection``: how cells reported below the detection limit ('<0.1', 'bdl', 'nd') are
+    taken: 'not-measured' (the default), 'detection-limit' or 'half-limit'; each is noted in the
+    sample's flags.
+    """
     db = default_database() if db is None else db
     if isinstance(source, pd.DataFrame):
         frame = source.copy()
@@ -250,6 +263,7 @@ def read_samples(source, db=None):
         pH_T_K[has] = to_unit(given[has], headers[pht_col][1] or "degC", "kelvin", f"column {pht_col!r}")
     totals_raw, gases, reserved, columns_of = {}, {}, {"sample", "pH", t_col, pht_col}, {}
     density = np.full(len(frame), np.nan)
+    flags = np.full(len(frame), "", dtype=object)
     for col, (name, unit) in headers.items():
         if col in reserved or name == "P":
             continue
@@ -258,21 +272,31 @@ def read_samples(source, db=None):
                 to_unit(1.0, unit or "g/cm3", "kg/L", f"column {col!r}")
             continue
         if unit is None:
-            if _names_a_species(name, db):
+            if _names_a_species(name, db) or name.lower() in ("alkalinity", "dic"):
                 raise InputError(f"column {col!r}: give the amount's unit in brackets, e.g. '{name} [mmol/kg]'")
             continue  # free-text or extra columns are ignored
+        key = unit.strip().lower().replace("µ", "u").replace("μ", "u").replace(" ", "")
+        if name.lower() == "alkalinity":
+            if key not in _EQUIVALENT_UNITS:
+                raise InputError(f"column {col!r}: alkalinity takes eq/kg, meq/kg, ueq/kg, meq/kg-solution or "
+                                 f"meq/L, got {unit!r}")
+            basis, factor = _EQUIVALENT_UNITS[key]
+            values = _numeric(frame, col, labels, what="alkalinity")
+            totals_raw[ALKALINITY] = (basis, values * factor, 0.0)
+            columns_of[ALKALINITY] = col
+            continue
         try:
-            species = db.resolve(name)
+            species = db.resolve("CO2(aq)" if name.upper() == "DIC" else name)
         except UnknownSpeciesError as err:
             raise InputError(f"column {col!r}: {err}") from None
-        values = _numeric(frame, col, labels, low=0.0, what="amount")
         rec = db.record(species)
         if rec.state == "gas":
-            if unit.strip().lower() not in _GAS_UNITS:
+            if key not in _GAS_UNITS:
                 raise InputError(f"column {col!r}: a gas column takes a pressure unit (bar, atm, Pa, MPa), got {unit!r}")
-            gases[species] = to_unit(values, unit, "bar", f"column {col!r}")
+            gases[species] = to_unit(_numeric(frame, col, labels, low=0.0, what="fugacity"), unit, "bar",
+                                     f"column {col!r}")
             continue
-        key = unit.strip().lower().replace("µ", "u").replace("μ", "u").replace(" ", "")
+        values, notes = _amount_cells(frame, col, labels, below_detection)
         if key in _AMOUNT_UNITS:
             basis, factor = _AMOUNT_UNITS[key]
             mol = values * factor
@@ -282,15 +306,111 @@ def read_samples(source, db=None):
         else:
             raise InputError(f"column {col!r}: unit {unit!r} is not an amount unit; use mol/kg, mmol/kg, "
                              "umol/kg, nmol/kg, mol/kg-solution, mol/L, mmol/L, mg/L, ug/L, ppm or ppb")
+        air = notes == AIR_SATURATED
+        if air.any():
+            mol = np.where(air, _air_saturated_molality(species, T_K[air], labels, col, db, air), mol)
+            basis = "per_kg_water" if air.all() else basis
+            if not air.all() and basis != "per_kg_water":
+                raise InputError(f"column {col!r}: 'air-saturated' cells need the column in mol/kg units "
+                                 "(per kg of water)")
+        flags = _add_notes(flags, notes, species)
         if species in totals_raw:
             raise InputError(f"column {col!r}: {species} is given twice")
         totals_raw[species] = (basis, mol, molar_mass_g_mol(rec.elements) / 1000.0)
         columns_of[species] = col
     _refuse_impossible_amounts(totals_raw, columns_of, labels)
     totals, estimated = _to_molality(totals_raw, density)
+    alkalinity = totals.pop(ALKALINITY, np.full(len(frame), np.nan))
     return SampleSet(names=labels, T_K=T_K, P_bar=P, pH=pH, pH_T_K=pH_T_K, totals=totals,
                      gas_fugacity_bar=gases, density_kg_L=density, density_estimated=estimated,
-                     problems=problems)
+                     problems=problems, alkalinity_eq_kg=alkalinity, flags=flags)
+
+
+ALKALINITY = "alkalinity"       # the key of the alkalinity column among the amounts being converted
+_EQUIVALENT_UNITS = {"eq/kg": ("per_kg_water", 1.0), "meq/kg": ("per_kg_water", 1e-3),
+                     "ueq/kg": ("per_kg_water", 1e-6), "meq/kg-solution": ("per_kg_solution", 1e-3),
+                     "ueq/kg-solution": ("per_kg_solution", 1e-6), "meq/l": ("per_litre", 1e-3),
+                     "ueq/l": ("per_litre", 1e-6)}
+
+#: Policies for cells below the detection limit ('<0.1', 'bdl', 'nd'): the cell is not measured,
+#: takes the detection limit, or half of it. Each such cell is noted in the sample's flags.
+BELOW_DETECTION_POLICIES = ("not-measured", "detection-limit", "half-limit")
+_BELOW_WORDS = ("bdl", "b.d.l.", "nd", "n.d.", "<dl", "< dl", "below detection")
+AIR_SATURATED = "air-saturated"
+BELOW_DETECTION = "below_detection"
+ASSUMED = "assumed"
+#: Mole fractions in dry air (common practice): the gases an 'air-saturated' cell may name
+AIR_MOLE_FRACTION = {"N2(aq)": 0.7808, "O2(aq)": 0.2095}
+
+
+def _amount_cells(frame, column, labels, policy):
+    """Values of an amount column and a note per cell ('' | below_detection | assumed |
+    air-saturated). Text cells: '<X' or a below-detection word (handled by ``policy``),
+    'assumed X' (the value X, noted), 'air-saturated' (computed later from the temperature)."""
+    if policy not in BELOW_DETECTION_POLICIES:
+        raise InputError(f"below-detection policy {policy!r} is unknown; choose one of "
+                         f"{', '.join(BELOW_DETECTION_POLICIES)}")
+    raw = frame[column]
+    text = raw.astype(str).str.strip().str.lower()
+    is_text = raw.notna().to_numpy() & pd.to_numeric(raw, errors="coerce").isna().to_numpy() & \
+        (text != "").to_numpy() & (text != "nan").to_numpy()
+    notes = np.full(len(frame), "", dtype=object)
+    cleaned = raw.copy().astype(object)
+    for i in np.flatnonzero(is_text):
+        cell = text.iloc[i]
+        where = f"row {labels[i]}, column {column!r}"
+        if cell.startswith("<") and cell[1:].strip() not in ("dl",):
+            limit = pd.to_numeric(cell[1:].strip(), errors="coerce")
+            if not np.isfinite(limit) or limit < 0:
+                raise InputError(f"{where}: cannot read the detection limit in {raw.iloc[i]!r}; write e.g. '<0.1'")
+            cleaned.iloc[i] = {"not-measured": np.nan, "detection-limit": limit, "half-limit": limit / 2}[policy]
+            notes[i] = BELOW_DETECTION
+        elif cell in _BELOW_WORDS:
+            if policy != "not-measured":
+                raise InputError(f"{where}: {raw.iloc[i]!r} gives no detection limit for the '{policy}' policy; "
+                                 "write it as '<LIMIT' or choose the not-measured policy")
+            cleaned.iloc[i] = np.nan
+            notes[i] = BELOW_DETECTION
+        elif cell.startswith("assumed"):
+            value = pd.to_numeric(cell[len("assumed"):].strip(), errors="coerce")
+            if not np.isfinite(value) or value < 0:
+                raise InputError(f"{where}: write an assumed amount as 'assumed 0.5', got {raw.iloc[i]!r}")
+            cleaned.iloc[i] = value
+            notes[i] = ASSUMED
+        elif cell == AIR_SATURATED:
+            cleaned.iloc[i] = 0.0
+            notes[i] = AIR_SATURATED
+        else:
+            raise InputError(f"{where}: {raw.iloc[i]!r} is not a number; amounts are numbers, '<LIMIT', 'bdl', "
+                             "'nd', 'assumed VALUE' or, for N2(aq) and O2(aq), 'air-saturated'")
+    values = _numeric(pd.DataFrame({column: cleaned}), column, labels, low=0.0, what="amount")
+    return values, notes
+
+
+def _air_saturated_molality(species, T_K, labels, column, db, rows):
+    """Molality [mol/kg] of a gas dissolved at equilibrium with water-saturated air at 1 atm and the
+    sample's temperature: x_air (1.01325 bar - p_w(T)) K_H(T), with K_H of this project's data
+    (salting-out neglected, stated)."""
+    from ..reactions.reaction import reaction_properties
+    from ..water.iapws95 import saturation_pressure_bar
+
+    if species not in AIR_MOLE_FRACTION:
+        raise InputError(f"column {column!r}: 'air-saturated' applies to {', '.join(AIR_MOLE_FRACTION)} only")
+    if np.any(T_K >= 373.124):
+        i = int(np.flatnonzero(rows)[np.flatnonzero(T_K >= 373.124)[0]])
+        raise InputError(f"row {labels[i]}, column {column!r}: water does not stay air-saturated at 1 atm above "
+                         "its boiling point; give an amount")
+    gas = db.record(species).formula + "(g)"
+    logK = reaction_properties(f"{gas} = {species}", T_K, 1.01325, T_unit="K", db=db).logK
+    f = AIR_MOLE_FRACTION[species] * (1.01325 - saturation_pressure_bar(T_K))
+    return f * 10.0 ** logK
+
+
+def _add_notes(flags, notes, species):
+    """Sample flags with this column's cell notes added ('below_detection:NO3-', ...)."""
+    text = np.where(notes == AIR_SATURATED, f"assumed_air_saturated:{species}",
+                    np.where(notes != "", notes.astype(str) + f":{species}", ""))
+    return np.where((flags != "") & (text != ""), flags + ", " + text, np.where(flags != "", flags, text))
 
 
 #: Largest amount of one solute accepted [mol per kg of water, of solution or per litre]: above
@@ -377,4 +497,5 @@ def merge_sample_sets(sets, groups, db=None):
     return SampleSet(names=[n for s in sets for n in s.names], T_K=join("T_K"), P_bar=join("P_bar"),
                      pH=join("pH"), pH_T_K=join("pH_T_K"), totals=totals, gas_fugacity_bar=gases,
                      density_kg_L=join("density_kg_L"), density_estimated=join("density_estimated"),
-                     notes=[x for s in sets for x in s.notes], problems=join("problems"))
+                     notes=[x for s in sets for x in s.notes], problems=join("problems"),
+                     alkalinity_eq_kg=join("alkalinity_eq_kg"), flags=join("flags"))

@@ -15,7 +15,7 @@ import pandas as pd
 
 from ..activities.models import activity_model, ionic_strength, log10_water_activity
 from ..errors import InputError, OutOfValidityError
-from ..flags import ionic_strength_flag
+from ..flags import ALKALINITY_NOT_USED, ionic_strength_flag
 from ..species.database import R_J_MOL_K, default_database
 from ..species.properties import standard_properties
 from ..water.born import debye_hueckel_A, debye_hueckel_B
@@ -61,6 +61,7 @@ class SpeciationResult:
     present: np.ndarray                 # bool (n, n_species): built only from measured components
     density_estimated: np.ndarray       # per-litre units converted with an estimated density, (n,)
     failure: np.ndarray = None          # per sample: why it could not be computed ('' if it was)
+    input_flags: np.ndarray = None      # per sample: notes on the inputs (assumed, below detection)
     water_per_kg_solution: np.ndarray = None   # kg of water per kg of solution, (n,)
     density_kg_L: np.ndarray = None     # fluid density at in-situ T, P, (n,)
 
@@ -95,7 +96,8 @@ class SpeciationResult:
         """Per sample, the comma-joined validity flags of the speciation ('' where none)."""
         flags = np.full(len(self.samples), "", dtype=object)
         flags[self.beyond_model_validity] = ionic_strength_flag(self.activity_model)
-        return flags
+        notes = self.input_flags
+        return np.where((flags != "") & (notes != ""), flags + ", " + notes, np.where(flags != "", flags, notes))
 
     def to_long_frame(self):
         """One row per sample x species, units in the column names; a sample that could not be
@@ -325,6 +327,24 @@ def _presence(system, totals, gas_masters):
     return present, nonzero, unmeasured, zero
 
 
+#: Zero levels of protons of the total alkalinity (Dickson 1981, Deep-Sea Res. 28A, 609): acids
+#: with pK >= 4.5 count from their acid form; other components count from their free ion
+ALKALINITY_ZERO_LEVELS = ("CO2(aq)", "B(OH)3(aq)", "H2S(aq)", "NH4+", "SiO2(aq)", "CH3COOH(aq)")
+
+
+def _zero_level_charges(system, db):
+    """Charge of each component's zero-level species (the master's own charge where no zero level
+    of the list belongs to the component)."""
+    charges = np.array([db.record(m).charge for m in system.masters], dtype=float)
+    for j in range(len(system.masters)):
+        for name in ALKALINITY_ZERO_LEVELS:
+            if name in system.species:
+                row = system.nu[system.species.index(name)]
+                if row[j] == 1 and np.count_nonzero(row) == 1:
+                    charges[j] = db.record(name).charge
+    return charges
+
+
 def _frozen_samples(samples, log10_aw, computed):
     """Per sample, 'frozen: ...' where it is colder than its own freezing point ('' elsewhere).
     Only computed samples below the triple-point temperature are checked: a solute only lowers
@@ -427,11 +447,21 @@ def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, 
     masters, gas_masters, totals = _components(s, db)
     system = build_system(masters, db)
     missing_pH = np.isnan(s.pH)
-    if missing_pH.any() and not pH_from_charge_balance:
-        i = int(np.flatnonzero(missing_pH)[0])
-        raise InputError(f"row {s.names[i]}, column 'pH': no pH given; give one or ask for pH from charge balance")
+    by_alkalinity = missing_pH & np.isfinite(s.alkalinity_eq_kg)
+    if (missing_pH & ~by_alkalinity).any() and not pH_from_charge_balance:
+        i = int(np.flatnonzero(missing_pH & ~by_alkalinity)[0])
+        raise InputError(f"row {s.names[i]}, column 'pH': no pH given; give one, an alkalinity, or ask for pH "
+                         "from charge balance")
     n, k = len(s), len(masters)
     charge_target = np.zeros(n) if charge_balance_target is None else np.asarray(charge_balance_target, float)
+    if by_alkalinity.any():
+        # each species' charge is its zero level's minus the protons it lacks, so
+        # sum z m = sum_j z(zero level of j) T_j - alkalinity: the charge balance with this target
+        # is the alkalinity equation (Dickson 1981 zero levels)
+        conservative = np.nan_to_num(totals) @ _zero_level_charges(system, db)
+        charge_target = np.where(by_alkalinity, conservative - s.alkalinity_eq_kg, charge_target)
+    input_flags = np.where(np.isfinite(s.alkalinity_eq_kg) & ~missing_pH,
+                           np.where(s.flags != "", s.flags + ", ", "") + ALKALINITY_NOT_USED, s.flags)
     shifted = ~missing_pH & (np.abs(s.pH_T_K - s.T_K) > 1e-9)
     failure = s.problems.copy()
     m = np.full((n, len(system.species)), np.nan)
@@ -487,5 +517,6 @@ def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, 
         composition=system.nu,
         minerals=system.minerals, saturation_index=si, iterations=iterations,
         activity_model=model.name, beyond_model_validity=I > model.I_max, present=present,
-        density_estimated=s.density_estimated, failure=failure, water_per_kg_solution=W,
+        density_estimated=s.density_estimated, failure=failure, input_flags=input_flags,
+        water_per_kg_solution=W,
         density_kg_L=s.insitu_density_kg_L(W, rho_w))

@@ -94,6 +94,7 @@ class SweepSpec:
     power_units: PowerUnits = field(default_factory=PowerUnits)
     water: str = "exact"               # or "tabulated": a WaterTable over each chunk's range
     mixing: dict = None                # {"hydrothermal": row, "seawater": row, "temperature_rule"}
+    below_detection: str = "not-measured"   # policy for '<0.1', 'bdl', 'nd' cells of the base sample
 
     def __post_init__(self):
         object.__setattr__(self, "reactions", reaction_records(self.reactions))
@@ -106,7 +107,7 @@ class SweepSpec:
         return hashlib.sha256(repr((sorted(self.base.items()), sorted(self.inputs.items()), self.reactions,
                                     self.activity_model, self.n, self.chunk_size, self.seed, self.supplies,
                                     self.cells, self.power_units.per_volume, self.power_units.per_mass,
-                                    self.water, self.mixing)).encode()).hexdigest()
+                                    self.water, self.mixing, self.below_detection)).encode()).hexdigest()
 
     @property
     def is_grid(self):
@@ -152,7 +153,7 @@ def _mixtures(spec, drawn, db):
     if extra:
         raise InputError(f"sweep: with mixing, only mixing:fraction and supply fields can vary, not {sorted(extra)}")
     m = spec.mixing
-    ends = read_samples(pd.DataFrame([m["hydrothermal"], m["seawater"]]), db=db)
+    ends = read_samples(pd.DataFrame([m["hydrothermal"], m["seawater"]]), db=db, below_detection=spec.below_detection)
     charge = speciate(ends, spec.activity_model, db=db).charge_imbalance
     mixed, target, _ = mixture_samples(ends, ends.names[0], ends.names[1], drawn["mixing:fraction"], db,
                                        charge, m.get("temperature_rule", "enthalpy"))
@@ -167,7 +168,7 @@ def run_chunk(spec, index, out_dir):
         samples, charge_target = _mixtures(spec, drawn, db)
         frame = frame.iloc[:len(samples)]
     else:
-        samples, charge_target = read_samples(frame, db=db), None
+        samples, charge_target = read_samples(frame, db=db, below_detection=spec.below_detection), None
     water = water_state
     if spec.water == "tabulated":
         water = WaterTable((samples.T_K.min() - 2.0, samples.T_K.max() + 2.0),
