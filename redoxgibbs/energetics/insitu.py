@@ -189,8 +189,18 @@ def insitu_energetics(result, reactions, db=None, minimum_energy_kJ=DEFAULT_MINI
     for r, x in enumerate(reactions):
         for s, c in zip(x.reaction.species, x.reaction.coefficients):
             nu[names.index(s), r] = c
-    props = standard_properties(names, result.T_K, result.P_bar, db=db, properties=("G",), water=water)
-    dG0 = props.G @ nu
+    # standard states of the samples that were computed (a failed sample's state may not be liquid)
+    ok = result.failure == ""
+    T_ok, P_ok = (result.T_K, result.P_bar) if ok.all() else (result.T_K[ok], result.P_bar[ok])
+    props = standard_properties(names, T_ok, P_ok, db=db, properties=("G",), water=water) if ok.any() else None
+    G = np.full((len(result.samples), len(names)), np.nan)
+    flags = {}
+    if props is not None:
+        G[ok] = props.G
+        for k, v in props.flags.items():
+            flags[k] = np.zeros(G.shape, bool)
+            flags[k][ok] = v
+    dG0 = G @ nu
     la, amounts = _activity_columns(result, names, db, gas_fugacity or {})
     # measured zeros: with a reactant at zero the reaction cannot run (no energy); with a product at
     # zero dGr is unbounded; both leave dGr undefined (never inf) and are named in zero_species
@@ -214,8 +224,9 @@ def insitu_energetics(result, reactions, db=None, minimum_energy_kJ=DEFAULT_MINI
     zeros = _join_flags(_joined_labels(zero_reactant, [f"{x} (reactant)" for x in names]),
                         _joined_labels(zero_product, [f"{x} (product)" for x in names]))
     missing = _joined_labels(missing_mask, names)
-    flag_names = list(props.flags)
-    flag_any = np.stack([(props.flags[k].astype(float) @ (nu != 0)) > 0 for k in flag_names], axis=1)
+    flag_names = list(flags)
+    flag_any = np.stack([(flags[k].astype(float) @ (nu != 0)) > 0 for k in flag_names], axis=1) if flags \
+        else np.zeros((len(result.samples), 0, len(reactions)), bool)
     flag_text = _join_flags(_joined_labels(flag_any, flag_names), result.sample_flags()[:, None])
     flag_sample = _join_flags(_joined_labels(flag_any.any(axis=2)[:, :, None], flag_names)[:, 0],
                               result.sample_flags())

@@ -18,7 +18,7 @@ from ..errors import InputError, UnknownSpeciesError
 from ..species.database import default_database
 from ..species.elements import molar_mass_g_mol
 from ..units import to_unit
-from ..water.iapws95 import psat_convention_bar
+from ..water.iapws95 import T_CRITICAL_K, psat_convention_bar
 
 __all__ = ["SampleSet", "read_samples", "read_sample_table", "parse_column_header", "merge_sample_sets"]
 
@@ -98,8 +98,8 @@ class SampleSet:
     def water_fraction_and_density(self, db):
         """kg water per kg solution and density [kg/L] at the laboratory, 25 C (measured, or
         estimated as on reading)."""
-        mass = sum(np.nan_to_num(m) * molar_mass_g_mol(db.record(s).elements) / 1000.0
-                   for s, m in self.totals.items())
+        mass = np.zeros(len(self.names)) + sum(np.nan_to_num(m) * molar_mass_g_mol(db.record(s).elements) / 1000.0
+                                               for s, m in self.totals.items())
         W = 1.0 / (1.0 + mass)
         rho = np.where(np.isnan(self.density_kg_L), 0.997 + SEAWATER_DENSITY_SLOPE * (1 - W),
                        self.density_kg_L)
@@ -147,8 +147,11 @@ def _pressures(frame, labels, T_K):
     text = frame[col].astype(str).str.strip().str.lower()
     is_psat = (text == "psat").to_numpy()
     P = np.empty(len(frame))
-    if is_psat.any():
-        P[is_psat] = psat_convention_bar(T_K[is_psat])
+    # 'psat' has no meaning above the critical temperature: such rows keep NaN, and fail on their own
+    defined = is_psat & (T_K < T_CRITICAL_K - 1.0)
+    P[is_psat & ~defined] = np.nan
+    if defined.any():
+        P[defined] = psat_convention_bar(T_K[defined])
     if (~is_psat).any():
         sub = frame.loc[~is_psat, [col]]
         values = _numeric(sub, col, [labels[i] for i in np.flatnonzero(~is_psat)], allow_blank=False,
@@ -163,6 +166,8 @@ def _state_problems(T_K, P_bar, t_col):
     from ..species.properties import VALIDITY
 
     problems = np.full(T_K.shape, "", dtype=object)
+    problems[np.isnan(P_bar)] = ("outside validity: P 'psat' is defined only below the critical temperature "
+                                 "(373.946 degC; here up to 372.9 degC); give a pressure")
     for bad, what in ((P_bar > VALIDITY["P_max_bar"], "'P [bar]' above 5000 bar"),
                       (T_K < VALIDITY["T_min_K"], f"{t_col!r} below -20 degC, colder than any liquid water here"),
                       (T_K > VALIDITY["T_max_K"], f"{t_col!r} above 1000 degC")):

@@ -353,8 +353,13 @@ def saturation_pressure_bar(T_K):
     unique, inverse = np.unique(T.ravel(), return_inverse=True)
     psat = np.empty(unique.size)
     for i, t in enumerate(unique):
-        phase.TD = t, 1000.0
-        psat[i] = phase.P_sat / 1e5
+        try:
+            phase.TD = t, 1000.0
+            psat[i] = phase.P_sat / 1e5
+        except ct.CanteraError:
+            raise OutOfValidityError(
+                f"P='psat': the saturation pressure could not be found at {t - 273.15:.6g} degC, within about "
+                "1 K of the critical point (373.946 degC); give a pressure") from None
     return psat[inverse].reshape(T.shape)
 
 

@@ -13,6 +13,7 @@ solved for T by Newton's method over arrays of states, with g_liquid from IAPWS-
 import numpy as np
 
 from . import iapws95
+from .iapws95 import SUPERCOOLED_LIMIT_K
 from .helmholtz import R_SPECIFIC_J_KG_K
 from .melting import P_IH_III_PA, P_TRIPLE_PA, T_TRIPLE_K, melting_temperature
 
@@ -70,7 +71,9 @@ def freezing_temperature(P_bar, ln_water_activity, iterations=8):
     pure-water melting temperature of IAPWS R14-08. a_w is taken as independent of T over the
     depression (stated approximation). At pressures above the ice Ih range (208.566 MPa, where ice
     III and V form) the pure-water melting temperature is returned: an upper bound on the
-    solution's freezing point. Below the triple-point pressure the result is NaN.
+    solution's freezing point. Below the triple-point pressure the result is NaN, and so it is where
+    the freezing point lies below the coldest liquid evaluated (``SUPERCOOLED_LIMIT_K``): such a
+    fluid is liquid at every state the engine takes.
     """
     P_Pa = np.asarray(P_bar, dtype=float) * 1e5
     ln_aw = np.asarray(ln_water_activity, dtype=float)
@@ -81,11 +84,14 @@ def freezing_temperature(P_bar, ln_water_activity, iterations=8):
     if not ih.any():
         return T
     P, la = P_Pa[ih], ln_aw[ih]
+    floor = SUPERCOOLED_LIMIT_K - 5.0
     Tk = T_melt[ih] * (1.0 + R_SPECIFIC_J_KG_K * T_melt[ih] * la / 333.4e3)   # first-order start
+    Tk = np.clip(Tk, floor, T_melt[ih])
     for _ in range(iterations):
         g_w, s_w = _liquid_gibbs(Tk, P)
         g_i, s_i = ice_ih_gibbs(Tk, P)
         f = g_w - g_i + R_SPECIFIC_J_KG_K * Tk * la
-        Tk = Tk - f / (-s_w + s_i + R_SPECIFIC_J_KG_K * la)
-    T[ih] = Tk
+        Tk = np.clip(Tk - f / (-s_w + s_i + R_SPECIFIC_J_KG_K * la), floor, T_melt[ih])
+    # colder than the liquid water evaluated here: the fluid is liquid at every state the engine takes
+    T[ih] = np.where(Tk <= floor, np.nan, Tk)
     return T
