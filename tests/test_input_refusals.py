@@ -89,3 +89,10 @@ def test_mixing_to_the_seawater_temperature_itself(tmp_path):
     code, _, err = _run(["mix", str(path), "--hydrothermal", "vents", "--seawater", "sea", "--temperatures",
                          "10", "--reaction", "aerobic hydrogen oxidation"])
     assert code == 2 and "no sample called 'vents'" in err
+
+
+def test_an_output_folder_that_cannot_be_written(tmp_path):
+    blocker = tmp_path / "a_file"
+    blocker.write_text("not a folder")
+    code, _, err = _run(["demo", "--quiet", "--out", str(blocker / "out")])
+    assert code == 2 and "cannot use" in err and "choose another path" in err

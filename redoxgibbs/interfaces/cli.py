@@ -301,6 +301,10 @@ def main(argv=None):
     except RedoxGibbsError as err:
         print(f"redoxgibbs: error: {err}", file=sys.stderr)
         return 2
+    except OSError as err:   # output folder or file that cannot be written (or read)
+        where = f" {err.filename}" if err.filename else ""
+        print(f"redoxgibbs: error: cannot use{where}: {err.strerror or err}; choose another path", file=sys.stderr)
+        return 2
     except KeyboardInterrupt:
         print("redoxgibbs: interrupted; nothing half-written is kept (a sweep resumes from its "
               "finished chunks)", file=sys.stderr)
