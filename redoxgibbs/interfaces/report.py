@@ -50,12 +50,18 @@ def _log_bars(ax, table, reactions, labels, xlabel):
     ax.set_xlabel(xlabel)
 
 
+#: Samples drawn per figure: beyond this the figures show the first ones (their captions say so);
+#: the tables and CSV files always hold every sample.
+MAX_FIGURE_SAMPLES = 24
+
+
 def _plots(first, out, units):
     """The four figures; ``first`` holds one row per sample x reaction (first supply)."""
     svgs = {}
     first = first.assign(label=_label(first))
     reactions = list(dict.fromkeys(first["reaction"]))
-    labels = list(dict.fromkeys(first["label"]))
+    labels = list(dict.fromkeys(first["label"]))[:MAX_FIGURE_SAMPLES]
+    first = first[first["label"].isin(labels)]
     pivot = _pivot(first, "dGr_kJ_per_mol_e", reactions, labels)
     height = max(3.0, 0.22 * len(reactions) + 1.5)
     fig, ax = plt.subplots(figsize=(9, height))
@@ -148,9 +154,24 @@ def _sources(assessment):
                                   "checked_to_T_C": "checked to T [C]", "outside_checks": "outside checks"})
 
 
-def _table_html(frame, max_rows=60):
+#: Rows shown per table in report.html and report.md; every row is in the CSV files beside them.
+MAX_TABLE_ROWS = 60
+
+
+def _more_rows(frame, max_rows):
+    return (f"First {max_rows} of {len(frame)} rows; every row is in results.csv and the ranking files."
+            if len(frame) > max_rows else "")
+
+
+def _table_html(frame, max_rows=MAX_TABLE_ROWS):
+    note = _more_rows(frame, max_rows)
     return frame.head(max_rows).to_html(index=False, float_format=lambda v: f"{v:.4g}", border=0,
-                                        classes="data", na_rep="")
+                                        classes="data", na_rep="") + (f"<p>{note}</p>" if note else "")
+
+
+def _table_md(frame, max_rows=MAX_TABLE_ROWS, **kw):
+    note = _more_rows(frame, max_rows)
+    return frame.head(max_rows).to_markdown(index=False, **kw) + (f"\n\n{note}" if note else "")
 
 
 def _solid_reactions(reactions):
@@ -206,8 +227,12 @@ def write_outputs(assessment, out_dir):
         "Per-cell requirement, per site: " + "; ".join(f"{site.name}: {site.cells.describe()}" for site in sc.sites)
         + "; cell numbers are given as a low-high range.",
     ]
+    n_samples = first["sample"].nunique()
+    shown = (f" (the first {MAX_FIGURE_SAMPLES} of {n_samples} samples; the tables and results.csv hold all)"
+             if n_samples > MAX_FIGURE_SAMPLES else "")
     figure_html = "\n".join(f'<figure><div class="plot">{svg[svg.find("<svg"):]}</div>'
-                            f"<figcaption>{html.escape(k.replace('_', ' '))}</figcaption></figure>"
+                            f"<figcaption>{html.escape(k.replace('_', ' ') + (shown if k != 'mixing_path' else ''))}"
+                            "</figcaption></figure>"
                             for k, svg in svgs.items())
     page = f"""<!DOCTYPE html>
 <html lang="en"><head><meta charset="utf-8"><title>{html.escape(sc.title)}</title>
@@ -245,12 +270,12 @@ checked against outside references in the project's tests; see DEVELOPERS.md for
     (out / "report.html").write_text(page)
     md = [f"# {sc.title}", "", f"> {SCREENING_NOTE}", "", "## Assumptions", ""]
     md += [f"- {a}" for a in assumptions]
-    md += ["", "## Speciation", "", summary.to_markdown(index=False, floatfmt=".4g")]
+    md += ["", "## Speciation", "", _table_md(summary, floatfmt=".4g")]
     md += ["", "## Most energy per kilogram of fluid, per sample", "",
-           ranking.groupby(["site", "sample"]).head(5).to_markdown(index=False, floatfmt=".4g"), "",
+           _table_md(ranking.groupby(["site", "sample"]).head(5), floatfmt=".4g"), "",
            "## Figures", ""]
     md += [f"![{k}]({k}.png)" for k in svgs]
-    md += ["", "## Validity flags", "", flagged[flag_columns].to_markdown(index=False, floatfmt=".4g")]
-    md += ["", "## Data sources and verification ledger", "", sources.to_markdown(index=False), ""]
+    md += ["", "## Validity flags", "", _table_md(flagged[flag_columns], floatfmt=".4g")]
+    md += ["", "## Data sources and verification ledger", "", _table_md(sources, max_rows=500), ""]
     (out / "report.md").write_text("\n".join(md))
     return out / "report.html"
