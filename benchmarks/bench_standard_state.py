@@ -28,12 +28,25 @@ def benchmark_database():
     return SpeciesDatabase(records + extra)
 
 
+def liquid_like(T, P):
+    """The states kept by the engine: supercritical states below the critical density (gas-like
+    water) are refused since the issue "One evaluation path", so they are left out here (cantera's
+    own IAPWS-95 tells which), and the same states serve every version compared."""
+    import cantera as ct
+
+    phase = ct.Water()
+    keep = np.array([t < 647.096 or (setattr(phase, "TP", (t, p * 1e5)) or phase.density >= 322.0)
+                     for t, p in zip(T, P)])
+    return T[keep], P[keep]
+
+
 def main():
     db = benchmark_database()
     names = db.names
     rng = np.random.default_rng(42)
     T = rng.uniform(283.15, 873.15, N_STATES)
     P = rng.uniform(500.0, 5000.0, N_STATES)
+    T, P = liquid_like(T, P)
     standard_properties(names, T[:10], P[:10], db=db)  # warm caches (cantera, data)
 
     t0 = time.perf_counter()

@@ -230,8 +230,9 @@ def _newton(system, model, logK, A, B, T_K, totals, fixed_log_a, log_aH, charge_
                      np.where(changed < 0.5 * last_change[idx], np.minimum(1.0, 1.5 * relax[idx]), relax[idx]))
         f = np.maximum(f, 1.0 / 64)
         relax[idx], last_change[idx] = f, changed
-        lg_new = lg[idx] + f[:, None] * (lg_new - lg[idx])
-        aw_new = log_aw[idx] + f * (aw_new - log_aw[idx])
+        if (f < 1.0).any():
+            lg_new = lg[idx] + f[:, None] * (lg_new - lg[idx])
+            aw_new = log_aw[idx] + f * (aw_new - log_aw[idx])
         lg[idx], log_aw[idx] = lg_new, aw_new
         ma = molalities(idx, lg_new, aw_new)
         m[idx] = ma
@@ -263,6 +264,20 @@ def _newton(system, model, logK, A, B, T_K, totals, fixed_log_a, log_aH, charge_
     else:
         converged[active] = False
     return m, lg, ionic_strength(m, z), log_aw, x, iterations, converged
+
+
+def _all_samples(out, ok, n, n_species, n_minerals):
+    """The solved arrays for all n samples: as solved when every sample was, else NaN-filled with
+    the solved ones placed (no copy in the common case)."""
+    if out is not None and ok.all():
+        return out
+    shapes = [(n, n_species), (n, n_species), (n,), (n,), (n,), (n,), (n,), (n, n_minerals), (n,)]
+    full = [np.zeros(sh, dtype=int) if k == 5 else np.zeros(sh, dtype=bool) if k == 6 else np.full(sh, np.nan)
+            for k, sh in enumerate(shapes)]
+    if out is not None:
+        for target, value in zip(full, out):
+            target[ok] = value
+    return full
 
 
 def _solve_or_least_squares(J, b):
@@ -460,19 +475,18 @@ def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, 
         # is the alkalinity equation (Dickson 1981 zero levels)
         conservative = np.nan_to_num(totals) @ _zero_level_charges(system, db)
         charge_target = np.where(by_alkalinity, conservative - s.alkalinity_eq_kg, charge_target)
-    input_flags = np.where(np.isfinite(s.alkalinity_eq_kg) & ~missing_pH,
-                           np.where(s.flags != "", s.flags + ", ", "") + ALKALINITY_NOT_USED, s.flags)
+    input_flags = s.flags.copy()
+    unused = np.flatnonzero(np.isfinite(s.alkalinity_eq_kg) & ~missing_pH)
+    for i in unused:
+        input_flags[i] = ", ".join(x for x in (input_flags[i], ALKALINITY_NOT_USED) if x)
     shifted = ~missing_pH & (np.abs(s.pH_T_K - s.T_K) > 1e-9)
     failure = s.problems.copy()
-    m = np.full((n, len(system.species)), np.nan)
-    lg, I, law, pH = m.copy(), np.full(n, np.nan), np.full(n, np.nan), np.full(n, np.nan)
-    rho_w = np.full(n, np.nan)
-    iterations = np.zeros(n, dtype=int)
-    logK_min = np.full((n, len(system.minerals)), np.nan)
 
     def solve(ok):
-        sub = s if ok.all() else s.subset(ok)
-        return _solve_samples(sub, totals[ok], system, masters, gas_masters, model, charge_target[ok],
+        if ok.all():
+            return _solve_samples(s, totals, system, masters, gas_masters, model, charge_target,
+                                  missing_pH | shifted, shifted, water, db)
+        return _solve_samples(s.subset(ok), totals[ok], system, masters, gas_masters, model, charge_target[ok],
                               (missing_pH | shifted)[ok], shifted[ok], water, db)
 
     ok = failure == ""
@@ -490,10 +504,11 @@ def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, 
                 failure[lab] = np.where(lab_problems != "", "pH temperature: " + lab_problems.astype(str), "")
             ok = failure == ""
             out = solve(ok) if ok.any() else None
+    m, lg, I, law, xH, iterations, converged, logK_min, rho_w = _all_samples(
+        out, ok, n, len(system.species), len(system.minerals))
+    pH = -xH
     if out is not None:
-        m[ok], lg[ok], I[ok], law[ok], xH, iterations[ok], converged, logK_min[ok], rho_w[ok] = out
-        pH[ok] = -xH
-        lost = np.flatnonzero(ok)[~converged]
+        lost = np.flatnonzero(ok & ~converged)
         failure[lost] = (f"speciation did not converge in {MAX_ITERATIONS} iterations; check the "
                          "totals, pH and charge balance of this sample")
         frozen = _frozen_samples(s, law, ok)

@@ -39,7 +39,7 @@ class StandardProperties:
     names: list
     T_K: np.ndarray
     P_bar: np.ndarray
-    G: np.ndarray
+    G: np.ndarray                    # each (n, m), or None when not asked for
     H: np.ndarray
     S: np.ndarray
     Cp: np.ndarray
@@ -160,7 +160,7 @@ def standard_properties(names, T_K, P_bar, db=None, properties=ALL_PROPERTIES, w
     """Standard-state G, H, S, Cp, V of species ``names`` at 1-D arrays ``T_K`` [K], ``P_bar`` [bar].
 
     States must already be liquid or supercritical water (the water layer refuses others).
-    ``properties`` limits the HKF work to what is asked (the others are NaN for HKF species);
+    ``properties`` limits the work to what is asked (the others are returned as None);
     without "Cp" the water second derivative is skipped. ``water``: the water-state function,
     the exact IAPWS-95 path or a :class:`~redoxgibbs.water.table.WaterTable`.
     """
@@ -182,8 +182,9 @@ def standard_properties(names, T_K, P_bar, db=None, properties=ALL_PROPERTIES, w
     hkf = [r for r in records if r.model == "hkf"]
     if hkf:
         cols = [index[r.name] for r in hkf]
-        for target, value in zip((G, H, S, Cp, V), _hkf_block(hkf, water, T, P, properties)):
-            target[:, cols] = value
+        for name, target, value in zip(ALL_PROPERTIES, (G, H, S, Cp, V), _hkf_block(hkf, water, T, P, properties)):
+            if name in properties:
+                target[:, cols] = value
         flags[LOW_DENSITY][:, cols] = (water.density_kg_m3 < 350.0)[:, None]
         flags[BELOW_0C][:, cols] = (T < 273.15)[:, None]
     if needs_water:
@@ -205,7 +206,14 @@ def standard_properties(names, T_K, P_bar, db=None, properties=ALL_PROPERTIES, w
     if formation:
         _formation_block(db, formation, index, T, (G, H, S, Cp, V), flags, properties)
     cols = [index[x] for x in names]
+    same = cols == list(range(m))   # the species asked for are all there is: no copy needed
+
+    def pick(X, name=None):
+        if name is not None and name not in properties:
+            return None
+        return X if same else X[:, cols]
+
     return StandardProperties(
-        names=names, T_K=T, P_bar=P, G=G[:, cols], H=H[:, cols], S=S[:, cols], Cp=Cp[:, cols],
-        V=V[:, cols], water_density_kg_m3=None if water is None else water.density_kg_m3,
-        flags={k: v[:, cols] for k, v in flags.items()})
+        names=names, T_K=T, P_bar=P, G=pick(G, "G"), H=pick(H, "H"), S=pick(S, "S"), Cp=pick(Cp, "Cp"),
+        V=pick(V, "V"), water_density_kg_m3=None if water is None else water.density_kg_m3,
+        flags={k: pick(v) for k, v in flags.items()})
