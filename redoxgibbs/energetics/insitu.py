@@ -149,8 +149,12 @@ def _joined_labels(mask, labels):
 def _join_flags(a, b):
     """Element-wise ', '-join of two object arrays of flag texts (broadcast), skipping blanks."""
     a, b = np.broadcast_arrays(np.asarray(a, dtype=object), np.asarray(b, dtype=object))
-    both = (a != "") & (b != "")
-    return np.where(both, a + ", " + b, np.where(a != "", a, b))
+    has_a, has_b = a != "", b != ""
+    out = np.where(has_a, a, b)
+    both = np.flatnonzero((has_a & has_b).ravel())      # usually few: join only those
+    if both.size:
+        out.ravel()[both] = [f"{x}, {y}" for x, y in zip(a.ravel()[both], b.ravel()[both])]
+    return out
 
 
 def _activity_columns(result, names, db, gas_fugacity):

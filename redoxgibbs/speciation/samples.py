@@ -356,10 +356,13 @@ def _amount_cells(frame, column, labels, policy):
         raise InputError(f"below-detection policy {policy!r} is unknown; choose one of "
                          f"{', '.join(BELOW_DETECTION_POLICIES)}")
     raw = frame[column]
-    text = raw.astype(str).str.strip().str.lower()
-    is_text = raw.notna().to_numpy() & pd.to_numeric(raw, errors="coerce").isna().to_numpy() & \
-        (text != "").to_numpy() & (text != "nan").to_numpy()
     notes = np.full(len(frame), "", dtype=object)
+    numbers = pd.to_numeric(raw, errors="coerce")
+    if not (raw.notna() & numbers.isna()).any():      # a plain numeric column (the usual case)
+        return _numeric(frame, column, labels, low=0.0, what="amount"), notes
+    text = raw.astype(str).str.strip().str.lower()
+    is_text = raw.notna().to_numpy() & numbers.isna().to_numpy() & (text != "").to_numpy() & \
+        (text != "nan").to_numpy()
     cleaned = raw.copy().astype(object)
     for i in np.flatnonzero(is_text):
         cell = text.iloc[i]
@@ -413,6 +416,8 @@ def _air_saturated_molality(species, T_K, labels, column, db, rows):
 
 def _add_notes(flags, notes, species):
     """Sample flags with this column's cell notes added ('below_detection:NO3-', ...)."""
+    if not (notes != "").any():
+        return flags
     text = np.where(notes == AIR_SATURATED, f"assumed_air_saturated:{species}",
                     np.where(notes != "", notes.astype(str) + f":{species}", ""))
     return np.where((flags != "") & (text != ""), flags + ", " + text, np.where(flags != "", flags, text))

@@ -35,6 +35,7 @@ MAX_ITERATIONS = 300
 PRE_STEPS = 3              # continued-fraction steps before Newton
 TOLERANCE = 1e-11          # residuals, relative to each row's scale (mass balance to 1e-11)
 GAMMA_TOLERANCE = 1e-10    # change of log10 gamma between iterations
+OSCILLATION_LOG_GAMMA = 0.01   # a growing change of log10 gamma above this is damped
 
 
 @dataclass
@@ -226,7 +227,8 @@ def _newton(system, model, logK, A, B, T_K, totals, fixed_log_a, log_aH, charge_
         # concentrated solutions (pH near 0 or 14, brines) can make the plain update of gamma
         # oscillate: take half the share of it wherever the change grew, and a larger share again
         # wherever it shrinks fast
-        f = np.where(changed > last_change[idx], 0.5 * relax[idx],
+        growing = (changed > last_change[idx]) & (changed > OSCILLATION_LOG_GAMMA)
+        f = np.where(growing, 0.5 * relax[idx],
                      np.where(changed < 0.5 * last_change[idx], np.minimum(1.0, 1.5 * relax[idx]), relax[idx]))
         f = np.maximum(f, 1.0 / 64)
         relax[idx], last_change[idx] = f, changed
