@@ -70,3 +70,22 @@ def test_every_flag_is_named_once_and_documented():
     guide = (Path(__file__).resolve().parent.parent / "DEVELOPERS.md").read_text()
     for name in FLAGS:
         assert f"`{name}`" in guide, name
+
+
+def test_standard_states_are_evaluated_once(monkeypatch):
+    import redoxgibbs.energetics.insitu as insitu
+    import redoxgibbs.speciation.solver as solver
+    from redoxgibbs.species.properties import standard_properties
+
+    calls = []
+
+    def counting(*args, **kw):
+        calls.append(1)
+        return standard_properties(*args, **kw)
+
+    monkeypatch.setattr(solver, "standard_properties", counting)
+    monkeypatch.setattr(insitu, "standard_properties", counting)
+    ev = evaluate(FLUID, REACTIONS, "bdot")
+    assert len(calls) == 1      # the speciation's evaluation serves the energetics too
+    direct = insitu.insitu_energetics(ev.speciation, REACTIONS)
+    np.testing.assert_allclose(direct.dGr, ev.energetics.dGr, rtol=1e-12)

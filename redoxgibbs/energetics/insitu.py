@@ -157,6 +157,35 @@ def _join_flags(a, b):
     return out
 
 
+def _standard_gibbs(result, names, db, water):
+    """Standard Gibbs energies (n, s) of ``names`` and their flags, NaN for failed samples: taken
+    from the speciation's own evaluation at the same states when it holds every species named,
+    else evaluated here (only for the samples that were computed: a failed one's state may not
+    be liquid water)."""
+    ok = result.failure == ""
+    G = np.full((len(result.samples), len(names)), np.nan)
+    cached = result.standard_states
+    if cached is not None and set(names) <= set(cached.names):
+        rows = ok[result.standard_rows]          # of the solved samples, those still computed
+        cols = [cached.names.index(x) for x in names]
+        G[ok] = cached.G[rows][:, cols]
+        flags = {}
+        for k, v in cached.flags.items():
+            flags[k] = np.zeros(G.shape, bool)
+            flags[k][ok] = v[rows][:, cols]
+        return G, flags
+    if not ok.any():
+        return G, {}
+    T_ok, P_ok = (result.T_K, result.P_bar) if ok.all() else (result.T_K[ok], result.P_bar[ok])
+    props = standard_properties(names, T_ok, P_ok, db=db, properties=("G",), water=water)
+    G[ok] = props.G
+    flags = {}
+    for k, v in props.flags.items():
+        flags[k] = np.zeros(G.shape, bool)
+        flags[k][ok] = v
+    return G, flags
+
+
 def _activity_columns(result, names, db, gas_fugacity):
     """log10 activities (n, s) of ``names`` from a speciation result; NaN where unknown."""
     n = len(result.samples)
@@ -193,17 +222,7 @@ def insitu_energetics(result, reactions, db=None, minimum_energy_kJ=DEFAULT_MINI
     for r, x in enumerate(reactions):
         for s, c in zip(x.reaction.species, x.reaction.coefficients):
             nu[names.index(s), r] = c
-    # standard states of the samples that were computed (a failed sample's state may not be liquid)
-    ok = result.failure == ""
-    T_ok, P_ok = (result.T_K, result.P_bar) if ok.all() else (result.T_K[ok], result.P_bar[ok])
-    props = standard_properties(names, T_ok, P_ok, db=db, properties=("G",), water=water) if ok.any() else None
-    G = np.full((len(result.samples), len(names)), np.nan)
-    flags = {}
-    if props is not None:
-        G[ok] = props.G
-        for k, v in props.flags.items():
-            flags[k] = np.zeros(G.shape, bool)
-            flags[k][ok] = v
+    G, flags = _standard_gibbs(result, names, db, water)
     dG0 = G @ nu
     la, amounts = _activity_columns(result, names, db, gas_fugacity or {})
     # measured zeros: with a reactant at zero the reaction cannot run (no energy); with a product at

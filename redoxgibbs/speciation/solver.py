@@ -63,6 +63,8 @@ class SpeciationResult:
     density_estimated: np.ndarray       # per-litre units converted with an estimated density, (n,)
     failure: np.ndarray = None          # per sample: why it could not be computed ('' if it was)
     input_flags: np.ndarray = None      # per sample: notes on the inputs (assumed, below detection)
+    standard_states: object = None      # StandardProperties (G) of the system at the in-situ states
+    standard_rows: np.ndarray = None    # the samples those rows belong to (those solved)
     water_per_kg_solution: np.ndarray = None   # kg of water per kg of solution, (n,)
     density_kg_L: np.ndarray = None     # fluid density at in-situ T, P, (n,)
 
@@ -144,7 +146,7 @@ def _log_k(system, db, T_K, P_bar, water, gas_masters):
     dG_min = G[:, n_sp:n_sp + n_min] - G_masters @ system.nu_min.T - G_w[:, None] * system.nu_w_min
     G_aq = G[:, [system.species.index(gas_masters[g]) for g in gases]]
     dG_gas = G_aq - G[:, n_sp + n_min + 1:]
-    return -dG_sp / RT, -dG_min / RT, -dG_gas / RT, props.water_density_kg_m3
+    return -dG_sp / RT, -dG_min / RT, -dG_gas / RT, props
 
 
 def _newton(system, model, logK, A, B, T_K, totals, fixed_log_a, log_aH, charge_target, solve_H,
@@ -415,7 +417,8 @@ def _solve_samples(s, totals, system, masters, gas_masters, model, charge_target
     n, k = len(s), len(masters)
 
     def stage(T_K, P_bar, log_aH, charge_target, solve_H, water=water, start=None):
-        logK, logK_min, logK_gas, rho = _log_k(system, db, T_K, P_bar, water, gas_masters)
+        logK, logK_min, logK_gas, props = _log_k(system, db, T_K, P_bar, water, gas_masters)
+        rho = props.water_density_kg_m3
         fixed = np.full((n, k), np.nan)
         for j, (gas, aq) in enumerate(gas_masters.items()):
             with np.errstate(divide="ignore"):
@@ -423,7 +426,7 @@ def _solve_samples(s, totals, system, masters, gas_masters, model, charge_target
         eps = dielectric_johnson_norton_1991(T_K, rho)[0]
         A, B = debye_hueckel_A(T_K, rho, eps), debye_hueckel_B(T_K, rho, eps)
         out = _newton(system, model, logK, A, B, T_K, totals, fixed, log_aH, charge_target, solve_H, start)
-        return out, logK_min, rho
+        return out, logK_min, props
 
     # stage 1: where pH was measured at another temperature, speciate there to fix the charge balance
     iterations = np.zeros(n, dtype=int)
@@ -438,9 +441,9 @@ def _solve_samples(s, totals, system, masters, gas_masters, model, charge_target
         iterations += np.where(shifted, its, 0)
         converged &= ok | ~shifted
         start = (x, lg, law)   # the in-situ solve starts from the laboratory one
-    (m, lg, I, law, x, its, ok), logK_min, rho = stage(s.T_K, s.P_bar, np.where(solve_H, np.nan, -s.pH),
-                                                       charge_target, solve_H, start=start)
-    return m, lg, I, law, x[:, k], iterations + its, converged & ok, logK_min, rho
+    (m, lg, I, law, x, its, ok), logK_min, props = stage(s.T_K, s.P_bar, np.where(solve_H, np.nan, -s.pH),
+                                                         charge_target, solve_H, start=start)
+    return (m, lg, I, law, x[:, k], iterations + its, converged & ok, logK_min, props.water_density_kg_m3), props
 
 
 def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, db=None,
@@ -492,10 +495,10 @@ def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, 
                               (missing_pH | shifted)[ok], shifted[ok], water, db)
 
     ok = failure == ""
-    out = None
+    out = props = None
     if ok.any():
         try:
-            out = solve(ok)
+            out, props = solve(ok)
         except OutOfValidityError:
             # some state is not liquid water: name which (one water evaluation per distinct state,
             # only on this path) and solve the others
@@ -505,7 +508,7 @@ def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, 
                 lab_problems = _water_problems(s.pH_T_K[lab], psat_convention_bar(s.pH_T_K[lab]), water_state)
                 failure[lab] = np.where(lab_problems != "", "pH temperature: " + lab_problems.astype(str), "")
             ok = failure == ""
-            out = solve(ok) if ok.any() else None
+            out, props = solve(ok) if ok.any() else (None, None)
     m, lg, I, law, xH, iterations, converged, logK_min, rho_w = _all_samples(
         out, ok, n, len(system.species), len(system.minerals))
     pH = -xH
@@ -535,5 +538,6 @@ def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, 
         minerals=system.minerals, saturation_index=si, iterations=iterations,
         activity_model=model.name, beyond_model_validity=I > model.I_max, present=present,
         density_estimated=s.density_estimated, failure=failure, input_flags=input_flags,
+        standard_states=props, standard_rows=ok,
         water_per_kg_solution=W,
         density_kg_L=s.insitu_density_kg_L(W, rho_w))
