@@ -16,6 +16,7 @@ from redoxgibbs.energetics.power import (CellRequirement, Supply, maintenance_ti
 from redoxgibbs.interfaces.cli import main
 from redoxgibbs.reactions.reaction import Reaction, reaction_properties
 from redoxgibbs.speciation.solver import speciate
+from scenarios import POOL_SCENARIO
 
 R = 8.314462618
 LN10 = np.log(10)
@@ -164,25 +165,7 @@ def test_insitu_cli_contract():
     assert len(frame) == 4
 
 
-SCENARIO = """
-title = "units check"
-[[sites]]
-name = "invented pool"
-[sites.fluid]
-"T [degC]" = 30
-"P [bar]" = 1
-pH = 7.0
-"Na+ [mmol/kg]" = 10
-"Cl- [mmol/kg]" = 10
-"H2(aq) [umol/kg]" = 20
-"O2(aq) [umol/kg]" = 100
-[reactions]
-catalog = ["aerobic hydrogen oxidation"]
-[[supply]]
-kind = "flow-through"
-flux_kg_per_s = 1.0
-volume_m3 = 100.0
-"""
+SCENARIO = POOL_SCENARIO
 
 
 def test_power_units_are_selectable(tmp_path):

@@ -16,6 +16,7 @@ from redoxgibbs.errors import RedoxGibbsError
 from redoxgibbs.pipeline.evaluate import evaluate
 from redoxgibbs.reactions.reaction import Reaction
 from redoxgibbs.speciation.samples import read_samples
+from scenarios import POOL_SCENARIO
 
 COLUMNS = ["Na+ [mmol/kg]", "Cl- [mmol/kg]", "HCO3- [mmol/kg]", "CO2(aq) [umol/kg]", "HS- [umol/kg]",
            "H2(aq) [umol/kg]", "O2(aq) [umol/kg]", "CH4(aq) [umol/kg]", "SO4^2- [mmol/kg]", "Fe^2+ [umol/kg]",
@@ -78,25 +79,7 @@ def test_reaction_strings_end_in_a_reaction_or_our_own_error(tokens):
         pass
 
 
-SCENARIO = """title = "fuzz"
-activity_model = "bdot"
-[[sites]]
-name = "pool"
-[sites.fluid]
-"T [degC]" = 30
-"P [bar]" = 1
-pH = 7.0
-"Na+ [mmol/kg]" = 10
-"Cl- [mmol/kg]" = 10
-"H2(aq) [umol/kg]" = 20
-"O2(aq) [umol/kg]" = 100
-[reactions]
-catalog = ["aerobic hydrogen oxidation"]
-[[supply]]
-kind = "flow-through"
-flux_kg_per_s = 1.0
-volume_m3 = 100.0
-[cells]
+SCENARIO = POOL_SCENARIO + """[cells]
 model = "tijhuis1993"
 cell_carbon_g = [1e-14, 1e-13]
 [uncertainty]

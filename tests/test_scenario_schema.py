@@ -9,28 +9,9 @@ import pytest
 from redoxgibbs.errors import InputError
 from redoxgibbs.interfaces.assess import run_assessment
 from redoxgibbs.interfaces.scenario import load_scenario
+from scenarios import POOL_SCENARIO
 
-BASE = """
-title = "schema check"
-activity_model = "bdot"
-[[sites]]
-name = "pool"
-[sites.fluid]
-"T [degC]" = 30
-"P [bar]" = 1
-pH = 7.0
-"Na+ [mmol/kg]" = 10
-"Cl- [mmol/kg]" = 10
-"HCO3- [mmol/kg]" = 2
-"H2(aq) [umol/kg]" = 20
-"O2(aq) [umol/kg]" = 100
-[reactions]
-catalog = ["aerobic hydrogen oxidation"]
-[[supply]]
-kind = "flow-through"
-flux_kg_per_s = 1.0
-volume_m3 = 100.0
-"""
+BASE = POOL_SCENARIO
 
 
 def _write(tmp_path, text, name="s.toml"):
