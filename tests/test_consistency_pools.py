@@ -78,7 +78,6 @@ def test_naming_another_species_of_the_pool_in_the_header_changes_nothing(carbon
 def test_methanogenesis_energy_is_limited_by_dissolved_inorganic_carbon():
     # at pH 10.5 almost no carbon is CO2(aq); the reaction still draws on the whole DIC pool
     result = speciate(_fluid(PH), "bdot")
-    e = insitu_energetics(result, [x for x in catalog() if x.name == "hydrogenotrophic methanogenesis"])
     total_dic = result.totals["HCO3-"][0]
     assert total_dic == pytest.approx(2e-3, rel=1e-9)
     assert result.pool_molality("CO2(aq)")[0] == pytest.approx(total_dic, rel=1e-12)

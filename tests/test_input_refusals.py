@@ -5,7 +5,6 @@ sample is reported in its own row while the others are computed (regression test
 import io
 from contextlib import redirect_stderr, redirect_stdout
 
-import numpy as np
 import pandas as pd
 import pytest
 

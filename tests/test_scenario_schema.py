@@ -3,7 +3,6 @@ sites are read on their own (units, species names) and may carry their own suppl
 
 import textwrap
 
-import numpy as np
 import pytest
 
 from redoxgibbs.errors import InputError

@@ -4,7 +4,7 @@ import numpy as np
 import pytest
 from statistics import NormalDist
 
-from redoxgibbs.sweeps.runner import Distribution, SweepSpec, load_results, run_chunk, run_sweep
+from redoxgibbs.sweeps.runner import Distribution, SweepSpec, load_results, run_sweep
 
 R = 8.314462618
 BASE = {"T [degC]": 25.0, "P [bar]": 1.0, "pH": 7.0, "Na+ [mmol/kg]": 1.0, "Cl- [mmol/kg]": 1.0,

@@ -8,7 +8,7 @@ import sys
 import numpy as np
 
 from ..energetics.catalog import catalog, couples_present, enumerate_reactions, resolve_reactions
-from ..energetics.insitu import DEFAULT_MINIMUM_ENERGY_KJ, insitu_energetics
+from ..energetics.insitu import DEFAULT_MINIMUM_ENERGY_KJ
 from ..errors import RedoxGibbsError
 from ..reactions.reaction import Reaction, reaction_properties
 from ..species.database import default_database
