@@ -36,11 +36,10 @@ def _power_frames(scenario, ev):
     base.insert(0, "site", np.repeat(scenario.site_of_samples(), len(scenario.reactions)))
     units, r = scenario.power_units, len(scenario.reactions)
     index = {x.describe(): k for k, x in enumerate(ev.supplies)}
-    T_K, rho = ev.speciation.T_K, ev.energetics.density_kg_L
     frames = []
     for site in scenario.sites:
         rows = site.rows
-        low_W, high_W = power_per_cell_W(site.cells, T_K[rows])
+        cells_W = power_per_cell_W(site.cells, ev.speciation.T_K[rows])
         for supply in site.supplies or [None]:
             frame = base.iloc[rows.start * r:rows.stop * r].copy()
             if supply is None:
@@ -48,12 +47,9 @@ def _power_frames(scenario, ev):
                 for col in (units.volume_column, units.mass_column, "cells_per_m3_low", "cells_per_m3_high"):
                     frame[col] = np.nan
             else:
-                P = ev.power_W_per_m3[index[supply.describe()]][rows]
                 frame["supply"] = supply.describe()
-                frame[units.volume_column] = P.ravel() * units.volume_factor
-                frame[units.mass_column] = (P / (rho[rows, None] * 1000.0)).ravel() * units.mass_factor
-                frame["cells_per_m3_low"] = (P / high_W[:, None]).ravel()
-                frame["cells_per_m3_high"] = (P / low_W[:, None]).ravel()
+                for col, values in ev.power_columns(index[supply.describe()], rows, cells_W).items():
+                    frame[col] = values
             frame["cell_model"] = site.cells.describe()
             frames.append(frame)
     return frames

@@ -56,14 +56,17 @@ class Evaluation:
     def failed(self):
         return self.speciation.failure != ""
 
-    def power_columns(self, k):
-        """Power and cell columns (n * r,) of supply ``k``, named in the chosen units."""
-        P = self.power_W_per_m3[k]
-        rho = self.energetics.density_kg_L[:, None]
+    def power_columns(self, k, rows=slice(None), cells_W=None):
+        """Power and cell columns of supply ``k`` for the samples ``rows`` (flattened sample x
+        reaction), named in the chosen units; ``cells_W`` = (low, high) per-cell demand of those
+        samples [W] when another cell model applies to them."""
+        P = self.power_W_per_m3[k][rows]
+        rho = self.energetics.density_kg_L[rows, None]
+        low, high = cells_W if cells_W is not None else (self.cells_W_low[rows], self.cells_W_high[rows])
         return {self.units.volume_column: (P * self.units.volume_factor).ravel(),
                 self.units.mass_column: (P / (rho * 1000.0) * self.units.mass_factor).ravel(),
-                "cells_per_m3_low": (P / self.cells_W_high[:, None]).ravel(),
-                "cells_per_m3_high": (P / self.cells_W_low[:, None]).ravel()}
+                "cells_per_m3_low": (P / high[:, None]).ravel(),
+                "cells_per_m3_high": (P / low[:, None]).ravel()}
 
     def to_frame(self, per_species=()):
         """Tidy table: one row per sample x reaction x supply model (x reaction when none)."""
