@@ -5,6 +5,7 @@ sample is reported in its own row while the others are computed (regression test
 import io
 from contextlib import redirect_stderr, redirect_stdout
 
+import numpy as np
 import pandas as pd
 import pytest
 
@@ -95,3 +96,19 @@ def test_an_output_folder_that_cannot_be_written(tmp_path):
     blocker.write_text("not a folder")
     code, _, err = _run(["demo", "--quiet", "--out", str(blocker / "out")])
     assert code == 2 and "cannot use" in err and "choose another path" in err
+
+
+def test_supply_and_cell_models_refuse_impossible_values_through_the_api():
+    from redoxgibbs.energetics.catalog import catalog
+    from redoxgibbs.energetics.power import CellRequirement, Supply, power_per_cell_W
+    from redoxgibbs.pipeline.evaluate import evaluate
+
+    frame = pd.DataFrame({"sample": ["a"], "T [degC]": [25.0], "P [bar]": [1.0], "pH": [7.0],
+                          "H2(aq) [umol/kg]": [10.0], "O2(aq) [umol/kg]": [100.0]})
+    reactions = [x for x in catalog() if x.name == "aerobic hydrogen oxidation"]
+    for bad in (Supply("flow-through", flux_kg_per_s=-1.0, volume_m3=1.0),
+                Supply("flow-through", flux_kg_per_s=1.0, volume_m3=0.0), Supply("turnover", tau_s=0.0)):
+        with pytest.raises(InputError, match="must be a finite number above 0"):
+            evaluate(frame, reactions, "bdot", [bad])
+    with pytest.raises(InputError, match="low <= high"):
+        power_per_cell_W(CellRequirement("tijhuis1993", (1e-13, 1e-14)), np.array([298.15]))

@@ -62,13 +62,30 @@ class Supply:
         raise InputError(f"supply kind {self.kind!r} is unknown; use flow-through, turnover, areal-flux or rate")
 
 
+_SUPPLY_NEEDS = {"flow-through": ("flux_kg_per_s", "volume_m3"), "turnover": ("tau_s",),
+                 "areal-flux": ("areal_flux_mol_per_m2_yr", "thickness_m"), "rate": ("rate_mol_per_L_s",)}
+
+
+def _check_supply(supply):
+    """Refuse a supply whose parameters are missing, not finite or not above zero (a drawn sweep
+    value included), naming the field."""
+    if supply.kind not in SUPPLY_KINDS:
+        supply.describe()     # raises the error that names the known kinds
+    for name in _SUPPLY_NEEDS[supply.kind]:
+        value = np.asarray(getattr(supply, name), dtype=float)
+        bad = ~np.isfinite(value) | (value <= 0)
+        if bad.any():
+            raise InputError(f"supply ({supply.kind}): {name} = {value[bad].ravel()[0]:g} must be a finite number "
+                             "above 0 (for a swept value, choose a distribution of positive values, e.g. "
+                             "lognormal or uniform)")
+
+
 def power_per_volume(supply, energetics):
     """Power [W/m3] per sample x reaction for a supply model and an InsituEnergetics result."""
+    _check_supply(supply)
     e_kg = energetics.energy_density_J_per_kg * energetics.water_per_kg_solution[:, None]
     e_L = e_kg * energetics.density_kg_L[:, None]
     affinity = np.where(energetics.dGr < 0, -energetics.dGr, 0.0)
-    if supply.kind not in SUPPLY_KINDS:
-        supply.describe()  # raises the error that names the known kinds
     if supply.kind == "flow-through":
         return e_kg * supply.flux_kg_per_s / supply.volume_m3
     if supply.kind == "turnover":
@@ -133,6 +150,10 @@ def maintenance_tijhuis_1993_W_per_Cmol(T_K):
 def power_per_cell_W(requirement, T_K):
     """(low, high) power demand per cell [W] at temperatures T_K (arrays)."""
     requirement.describe()
+    for name in ("cell_carbon_g", "basal_W"):
+        low, high = getattr(requirement, name)
+        if not (np.isfinite(low) and np.isfinite(high) and 0 < low <= high):
+            raise InputError(f"cells: {name} = [{low:g}, {high:g}] must be [low, high] with 0 < low <= high")
     if requirement.model == "tijhuis1993":
         per_cmol = maintenance_tijhuis_1993_W_per_Cmol(T_K)
         lo, hi = requirement.cell_carbon_g
