@@ -17,6 +17,7 @@ import numpy as np
 import pandas as pd
 
 from ..errors import InputError
+from ..water.iapws95 import M_WATER_KG_PER_MOL as M_WATER_KG
 
 __all__ = [
     "ActivityModel",
@@ -33,7 +34,6 @@ __all__ = [
     "MODELS",
 ]
 
-M_WATER_KG = 0.0180153
 DEFAULT_ION_SIZE_ANGSTROM = {1: 4.0, 2: 5.0, 3: 9.0}  # common practice for unlisted ions
 
 # Helgeson (1969) Table 2: B-dot [kg/mol] along saturation, from memory

@@ -21,12 +21,12 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
+from ..constants import R_J_MOL_K as R
 from ..errors import InputError
 from ..units import column_label, conversion_factor
 
 __all__ = ["Supply", "power_per_volume", "PowerUnits", "CellRequirement", "power_per_cell_W", "SECONDS_PER_YEAR"]
 
-R = 8.31446261815324
 SECONDS_PER_YEAR = 365.25 * 86400
 SUPPLY_KINDS = ("flow-through", "turnover", "areal-flux", "rate")
 TIJHUIS_MG_KJ_PER_CMOL_H = 4.5

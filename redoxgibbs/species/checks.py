@@ -19,13 +19,13 @@ Tolerances and their reasons:
 
 import numpy as np
 
+from ..constants import T_REF_K
 from ..standard_state.gas import nasa7_cp_h_s, nasa7_coefficients
 from ..units import CAL_TO_J
 from .elements import formation_entropy_offset
 
 __all__ = ["check_database", "gibbs_helmholtz_residual_J"]
 
-T_REF_K = 298.15
 TOL_GHS_J = 400.0
 BORN_X_SPREAD = 1e-8     # K^-2, spread of reference X between Born-function sets
 BORN_Q_SPREAD = 7.5e-8   # bar^-1, spread of reference Q

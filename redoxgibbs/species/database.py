@@ -17,6 +17,7 @@ from pathlib import Path
 import numpy as np
 import pandas as pd
 
+from ..constants import R_J_MOL_K, T_REF_K
 from ..errors import InputError, SpeciesDataError, UnknownSpeciesError
 from ..units import CAL_TO_J
 from .equation import split_reaction
@@ -24,8 +25,6 @@ from .formula import canonical_name, parse_formula, split_charge
 
 __all__ = ["SpeciesRecord", "SpeciesDatabase", "load_species_data", "default_database", "R_J_MOL_K"]
 
-R_J_MOL_K = 8.31446261815324
-T_REF_K = 298.15
 
 
 @dataclass(frozen=True)

@@ -8,6 +8,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from ..constants import T_REF_K
 from ..errors import OutOfValidityError
 from ..flags import BELOW_0C, FORMATION_ENTHALPY_MISSING, LOW_DENSITY, NEAR_CRITICAL, OUTSIDE_FORMATION_RANGE
 from ..standard_state.formation import vant_hoff_reaction_entropy, vant_hoff_reaction_gibbs
@@ -17,6 +18,7 @@ from ..standard_state.hkf import (HKFParameters, SolventTerms, hkf_enthalpy, hkf
                                   hkf_gibbs, hkf_heat_capacity, hkf_volume, solvation_omega)
 from ..standard_state.mineral import maier_kelley_properties
 from ..standard_state.solvent import apparent_water_properties
+from ..units import CAL_TO_J
 from ..water.born import born_functions, reference_born_functions
 from ..water.dielectric import dielectric_along_TP
 from ..water.iapws95 import near_critical, water_state
@@ -79,7 +81,7 @@ def _hkf_block(records, water, T, P, wanted):
         omega_ref=np.array([r.params["omega_ref_cal"] for r in records]),
         charge=np.array([float(r.charge) for r in records]))
     solvent = _solvent_terms(water, params, T.size)
-    cal = 4.184
+    cal = CAL_TO_J
     equations = {"G": (hkf_gibbs, cal), "H": (hkf_enthalpy, cal), "S": (hkf_entropy, cal),
                  "Cp": (hkf_heat_capacity, cal), "V": (hkf_volume, 1.0)}
     return [equations[p][0](params, T, P, solvent) * equations[p][1] if p in wanted else np.nan
@@ -153,7 +155,7 @@ def _formation_block(db, formation, index, T, arrays, flags, properties):
     T_C = (T - 273.15)[:, None]
     flags[OUTSIDE_FORMATION_RANGE][:, fcols] |= (T_C < T_min - 1e-9) | (T_C > T_max)
     missing = np.array([e[4] for e in expanded])
-    flags[FORMATION_ENTHALPY_MISSING][:, fcols] |= missing & np.any(T != 298.15)
+    flags[FORMATION_ENTHALPY_MISSING][:, fcols] |= missing & np.any(T != T_REF_K)
 
 
 def standard_properties(names, T_K, P_bar, db=None, properties=ALL_PROPERTIES, water=water_state):

@@ -7,9 +7,9 @@ Isocoulombic reactions make the constant-enthalpy assumption good to high temper
 (Gu, Gammons & Bloom 1994, Geochim. Cosmochim. Acta 58, 3545).
 """
 
-__all__ = ["vant_hoff_reaction_gibbs", "vant_hoff_reaction_entropy"]
+from ..constants import T_REF_K
 
-T_REF_K = 298.15
+__all__ = ["vant_hoff_reaction_gibbs", "vant_hoff_reaction_entropy"]
 
 
 def vant_hoff_reaction_entropy(dG_r_ref, dH_r):

@@ -12,9 +12,10 @@ import functools
 import cantera as ct
 import numpy as np
 
+from ..constants import R_J_MOL_K as R
+
 __all__ = ["nasa7_coefficients", "nasa7_cp_h_s", "apparent_gas_properties"]
 
-R = 8.31446261815324
 
 
 @functools.lru_cache(maxsize=None)

@@ -13,6 +13,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from ..constants import P_REF_BAR, T_REF_K
 from .gfunction import omega_charged
 
 __all__ = [
@@ -28,8 +29,6 @@ __all__ = [
 
 THETA_K = 228.0      # solvent singular temperature (Tanger & Helgeson 1988)
 PSI_BAR = 2600.0     # solvent pressure parameter
-T_REF_K = 298.15
-P_REF_BAR = 1.0
 CAL_BAR_TO_CM3 = 41.84  # 1 cal/bar = 41.84 cm3
 
 

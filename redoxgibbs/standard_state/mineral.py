@@ -7,9 +7,10 @@ adds dH_t to H, dH_t / T_t to S and dH_t (1 - T/T_t) to G (Helgeson et al. 1978,
 
 import numpy as np
 
+from ..constants import T_REF_K
+
 __all__ = ["maier_kelley_properties"]
 
-T_REF_K = 298.15
 P_REF_BAR = 1.0
 CM3_BAR_TO_J = 0.1
 

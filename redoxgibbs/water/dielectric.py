@@ -9,13 +9,14 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from ..constants import T_REF_K as _T_REF_K
+
 __all__ = ["DielectricState", "dielectric_johnson_norton_1991", "dielectric_along_TP"]
 
 # Johnson & Norton (1991) Am. J. Sci. 291, 541-648, eq. (36) and Table 2 (coefficients a1..a10),
 # as coded in SUPCRT92 (Johnson, Oelkers & Helgeson 1992, Comput. Geosci. 18, 899). From memory.
 _JN91_A = (0.1470333593e2, 0.2128462733e3, -0.1154445173e3, 0.1955210915e2, -0.8330347980e2,
            0.3213240048e2, -0.6694098645e1, -0.3786202045e2, 0.6887359646e2, -0.2729401652e2)
-_T_REF_K = 298.15
 _RHO_REF = 1000.0  # kg/m3
 
 
