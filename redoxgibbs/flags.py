@@ -6,8 +6,10 @@ change a number. Refusals (states where water is ice, vapour or gas-like; sample
 their freezing point) are not flags: those samples carry a ``failure`` instead.
 """
 
-__all__ = ["FLAGS", "LOW_DENSITY", "BELOW_0C", "OUTSIDE_FORMATION_RANGE", "FORMATION_ENTHALPY_MISSING",
-           "NEAR_CRITICAL", "ALKALINITY_NOT_USED", "ionic_strength_flag"]
+import numpy as np
+
+__all__ = ["FLAGS", "join_flags", "LOW_DENSITY", "BELOW_0C", "OUTSIDE_FORMATION_RANGE",
+           "FORMATION_ENTHALPY_MISSING", "NEAR_CRITICAL", "ALKALINITY_NOT_USED", "ionic_strength_flag"]
 
 LOW_DENSITY = "water_density_below_0.35_g_cm3"
 BELOW_0C = "below_0C_extrapolated"
@@ -15,6 +17,18 @@ OUTSIDE_FORMATION_RANGE = "outside_formation_T_range"
 FORMATION_ENTHALPY_MISSING = "formation_enthalpy_missing"
 NEAR_CRITICAL = "near_critical_point"
 ALKALINITY_NOT_USED = "alkalinity_not_used"
+
+
+def join_flags(a, b):
+    """Element-wise ', '-join of two (broadcast) arrays of flag texts, blanks skipped: the one way
+    flags are combined in every table."""
+    a, b = np.broadcast_arrays(np.asarray(a, dtype=object), np.asarray(b, dtype=object))
+    has_a, has_b = a != "", b != ""
+    out = np.where(has_a, a, b)
+    both = np.flatnonzero((has_a & has_b).ravel())      # usually few: join only those
+    if both.size:
+        out.ravel()[both] = [f"{x}, {y}" for x, y in zip(a.ravel()[both], b.ravel()[both])]
+    return out
 
 
 def ionic_strength_flag(model_name):

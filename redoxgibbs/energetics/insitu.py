@@ -13,6 +13,7 @@ from dataclasses import dataclass
 import numpy as np
 import pandas as pd
 
+from ..flags import join_flags
 from ..species.database import R_J_MOL_K, default_database
 from ..species.properties import standard_properties
 from ..water.iapws95 import water_state
@@ -146,17 +147,6 @@ def _joined_labels(mask, labels):
     return out
 
 
-def _join_flags(a, b):
-    """Element-wise ', '-join of two object arrays of flag texts (broadcast), skipping blanks."""
-    a, b = np.broadcast_arrays(np.asarray(a, dtype=object), np.asarray(b, dtype=object))
-    has_a, has_b = a != "", b != ""
-    out = np.where(has_a, a, b)
-    both = np.flatnonzero((has_a & has_b).ravel())      # usually few: join only those
-    if both.size:
-        out.ravel()[both] = [f"{x}, {y}" for x, y in zip(a.ravel()[both], b.ravel()[both])]
-    return out
-
-
 def _standard_gibbs(result, names, db, water):
     """Standard Gibbs energies (n, s) of ``names`` and their flags, NaN for failed samples: taken
     from the speciation's own evaluation at the same states when it holds every species named,
@@ -244,14 +234,14 @@ def insitu_energetics(result, reactions, db=None, minimum_energy_kJ=DEFAULT_MINI
     E, limiting = energy_density_kernel(np.nan_to_num(dGr, nan=0.0), amounts, consumed)
     E = np.where(undefined & ~(no_reactant & ~missing_mask.any(axis=1) & ~failed[:, None]), np.nan, E)
     limiting_names = np.where((limiting >= 0) & ~undefined, np.array(names + [""], dtype=object)[limiting], "")
-    zeros = _join_flags(_joined_labels(zero_reactant, [f"{x} (reactant)" for x in names]),
+    zeros = join_flags(_joined_labels(zero_reactant, [f"{x} (reactant)" for x in names]),
                         _joined_labels(zero_product, [f"{x} (product)" for x in names]))
     missing = _joined_labels(missing_mask, names)
     flag_names = list(flags)
     flag_any = np.stack([(flags[k].astype(float) @ (nu != 0)) > 0 for k in flag_names], axis=1) if flags \
         else np.zeros((len(result.samples), 0, len(reactions)), bool)
-    flag_text = _join_flags(_joined_labels(flag_any, flag_names), result.sample_flags()[:, None])
-    flag_sample = _join_flags(_joined_labels(flag_any.any(axis=2)[:, :, None], flag_names)[:, 0],
+    flag_text = join_flags(_joined_labels(flag_any, flag_names), result.sample_flags()[:, None])
+    flag_sample = join_flags(_joined_labels(flag_any.any(axis=2)[:, :, None], flag_names)[:, 0],
                               result.sample_flags())
     return InsituEnergetics(
         samples=result.samples, reactions=list(reactions), T_K=result.T_K, P_bar=result.P_bar,

@@ -15,6 +15,7 @@ import numpy as np
 import pandas as pd
 
 from ..errors import InputError, UnknownSpeciesError
+from ..flags import join_flags
 from ..species.database import default_database
 from ..species.elements import molar_mass_g_mol
 from ..units import to_unit
@@ -420,7 +421,7 @@ def _add_notes(flags, notes, species):
         return flags
     text = np.where(notes == AIR_SATURATED, f"assumed_air_saturated:{species}",
                     np.where(notes != "", notes.astype(str) + f":{species}", ""))
-    return np.where((flags != "") & (text != ""), flags + ", " + text, np.where(flags != "", flags, text))
+    return join_flags(flags, text)
 
 
 #: Largest amount of one solute accepted [mol per kg of water, of solution or per litre]: above

@@ -15,7 +15,7 @@ import pandas as pd
 
 from ..activities.models import activity_model, ionic_strength, log10_water_activity
 from ..errors import InputError, OutOfValidityError
-from ..flags import ALKALINITY_NOT_USED, ionic_strength_flag
+from ..flags import ALKALINITY_NOT_USED, ionic_strength_flag, join_flags
 from ..species.database import R_J_MOL_K, default_database
 from ..species.properties import standard_properties
 from ..water.born import debye_hueckel_A, debye_hueckel_B
@@ -99,8 +99,7 @@ class SpeciationResult:
         """Per sample, the comma-joined validity flags of the speciation ('' where none)."""
         flags = np.full(len(self.samples), "", dtype=object)
         flags[self.beyond_model_validity] = ionic_strength_flag(self.activity_model)
-        notes = self.input_flags
-        return np.where((flags != "") & (notes != ""), flags + ", " + notes, np.where(flags != "", flags, notes))
+        return join_flags(flags, self.input_flags)
 
     def to_long_frame(self):
         """One row per sample x species, units in the column names; a sample that could not be
@@ -480,10 +479,8 @@ def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, 
         # is the alkalinity equation (Dickson 1981 zero levels)
         conservative = np.nan_to_num(totals) @ _zero_level_charges(system, db)
         charge_target = np.where(by_alkalinity, conservative - s.alkalinity_eq_kg, charge_target)
-    input_flags = s.flags.copy()
-    unused = np.flatnonzero(np.isfinite(s.alkalinity_eq_kg) & ~missing_pH)
-    for i in unused:
-        input_flags[i] = ", ".join(x for x in (input_flags[i], ALKALINITY_NOT_USED) if x)
+    input_flags = join_flags(s.flags, np.where(np.isfinite(s.alkalinity_eq_kg) & ~missing_pH,
+                                               ALKALINITY_NOT_USED, ""))
     shifted = ~missing_pH & (np.abs(s.pH_T_K - s.T_K) > 1e-9)
     failure = s.problems.copy()
 
