@@ -25,10 +25,16 @@ from ..constants import R_J_MOL_K as R
 from ..errors import InputError
 from ..units import column_label, conversion_factor
 
-__all__ = ["Supply", "power_per_volume", "PowerUnits", "CellRequirement", "power_per_cell_W", "SECONDS_PER_YEAR"]
+__all__ = ["SUPPLY_PARAMETERS", "Supply", "power_per_volume", "PowerUnits", "CellRequirement", "power_per_cell_W",
+           "SECONDS_PER_YEAR"]
 
 SECONDS_PER_YEAR = 365.25 * 86400
-SUPPLY_KINDS = ("flow-through", "turnover", "areal-flux", "rate")
+#: Each supply model and the fields it takes (the amounts must be above zero; limiting_species
+#: names a species). The scenario schema reads the same table.
+SUPPLY_PARAMETERS = {"flow-through": ("flux_kg_per_s", "volume_m3"), "turnover": ("tau_s",),
+                     "areal-flux": ("areal_flux_mol_per_m2_yr", "thickness_m", "limiting_species"),
+                     "rate": ("rate_mol_per_L_s",)}
+SUPPLY_KINDS = tuple(SUPPLY_PARAMETERS)
 TIJHUIS_MG_KJ_PER_CMOL_H = 4.5
 TIJHUIS_EA_J_PER_MOL = 69400.0
 CARBON_G_PER_MOL = 12.011
@@ -62,16 +68,14 @@ class Supply:
         raise InputError(f"supply kind {self.kind!r} is unknown; use flow-through, turnover, areal-flux or rate")
 
 
-_SUPPLY_NEEDS = {"flow-through": ("flux_kg_per_s", "volume_m3"), "turnover": ("tau_s",),
-                 "areal-flux": ("areal_flux_mol_per_m2_yr", "thickness_m"), "rate": ("rate_mol_per_L_s",)}
-
-
 def _check_supply(supply):
     """Refuse a supply whose parameters are missing, not finite or not above zero (a drawn sweep
     value included), naming the field."""
     if supply.kind not in SUPPLY_KINDS:
         supply.describe()     # raises the error that names the known kinds
-    for name in _SUPPLY_NEEDS[supply.kind]:
+    for name in SUPPLY_PARAMETERS[supply.kind]:
+        if name == "limiting_species":
+            continue
         value = np.asarray(getattr(supply, name), dtype=float)
         bad = ~np.isfinite(value) | (value <= 0)
         if bad.any():

@@ -10,6 +10,7 @@ import difflib
 import math
 from dataclasses import dataclass, field
 
+from ..energetics.power import SUPPLY_PARAMETERS
 from ..errors import InputError
 
 __all__ = ["Key", "SCENARIO", "check_scenario", "schema_reference"]
@@ -36,7 +37,7 @@ _POSITIVE = dict(positive=True)
 
 SUPPLY = {
     "kind": Key("str", "supply model", required=True,
-                choices=("flow-through", "turnover", "areal-flux", "rate")),
+                choices=tuple(SUPPLY_PARAMETERS)),
     "flux_kg_per_s": Key("number", "fluid mass flux through the habitat [kg/s] (flow-through)", **_POSITIVE),
     "volume_m3": Key("number", "habitat volume [m3] (flow-through)", **_POSITIVE),
     "tau_s": Key("number", "renewal time of the reactant pool [s] (turnover)", **_POSITIVE),
@@ -45,9 +46,6 @@ SUPPLY = {
     "limiting_species": Key("str", "the species the areal flux delivers (areal-flux)"),
     "rate_mol_per_L_s": Key("number", "reaction rate [mol/L/s] (rate)", **_POSITIVE),
 }
-_SUPPLY_NEEDS = {"flow-through": ("flux_kg_per_s", "volume_m3"), "turnover": ("tau_s",),
-                 "areal-flux": ("areal_flux_mol_per_m2_yr", "thickness_m", "limiting_species"),
-                 "rate": ("rate_mol_per_L_s",)}
 
 CELLS = {
     "model": Key("str", "per-cell power model", choices=("tijhuis1993", "basal")),
@@ -192,13 +190,13 @@ def _check_value(where, key, v):
 
 def _check_supply(where, table):
     kind = table.get("kind", "").strip().lower()
-    missing = [k for k in _SUPPLY_NEEDS.get(kind, ()) if k not in table]
+    missing = [k for k in SUPPLY_PARAMETERS.get(kind, ()) if k not in table]
     if missing:
         _fail(where, f"a {kind} supply needs {', '.join(missing)}")
-    extra = [k for k in table if k != "kind" and k not in _SUPPLY_NEEDS.get(kind, ())]
+    extra = [k for k in table if k != "kind" and k not in SUPPLY_PARAMETERS.get(kind, ())]
     if extra:
         _fail(where, f"{', '.join(extra)} do not belong to a {kind} supply (it takes "
-                     f"{', '.join(_SUPPLY_NEEDS[kind])})")
+                     f"{', '.join(SUPPLY_PARAMETERS[kind])})")
 
 
 def _check_inputs(where, v):
