@@ -224,7 +224,9 @@ def insitu_energetics(result, reactions, db=None, minimum_energy_kJ=DEFAULT_MINI
     zero_reactant = zero[:, :, None] & (nu[None] < 0)
     zero_product = zero[:, :, None] & (nu[None] > 0)
     no_reactant = zero_reactant.any(axis=1)
-    undefined = missing_mask.any(axis=1) | zero_product.any(axis=1) | no_reactant | failed[:, None]
+    unknown = missing_mask.any(axis=1) | failed[:, None]
+    unbounded = zero_product.any(axis=1) & ~no_reactant
+    undefined = unknown | unbounded | no_reactant
     dGr = np.where(undefined, np.nan, dGr)
     log_q = np.where(undefined, np.nan, log_q)
     consumed = np.where(nu < 0, -nu, 0.0)
@@ -232,7 +234,7 @@ def insitu_energetics(result, reactions, db=None, minimum_energy_kJ=DEFAULT_MINI
         if name in NOT_LIMITING or db.record(name).state != "aq":
             consumed[j] = 0.0
     E, limiting = energy_density_kernel(np.nan_to_num(dGr, nan=0.0), amounts, consumed)
-    E = np.where(undefined & ~(no_reactant & ~missing_mask.any(axis=1) & ~failed[:, None]), np.nan, E)
+    E = np.where(unknown | unbounded, np.nan, E)     # a reactant at zero: no energy (0)
     limiting_names = np.where((limiting >= 0) & ~undefined, np.array(names + [""], dtype=object)[limiting], "")
     zeros = join_flags(_joined_labels(zero_reactant, [f"{x} (reactant)" for x in names]),
                         _joined_labels(zero_product, [f"{x} (product)" for x in names]))
