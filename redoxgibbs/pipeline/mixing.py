@@ -16,7 +16,20 @@ from ..speciation.samples import SampleSet, read_samples
 from ..speciation.solver import speciate
 from .evaluate import evaluate
 
-__all__ = ["mixing_energetics"]
+__all__ = ["mixtures", "mixing_energetics"]
+
+
+def mixtures(samples, hydrothermal, seawater, fractions, activity_model_name, db, rule="enthalpy"):
+    """Mixtures of two end-members of ``samples`` (a SampleSet) at mass ``fractions`` of the
+    hydrothermal one, and their charge-balance targets: the end-members' own charge imbalance
+    (their alkalinity), mixed by mass. An end-member that cannot be computed is refused by name."""
+    a, b = end_member_row(samples, hydrothermal), end_member_row(samples, seawater)
+    ends = speciate(samples, activity_model_name, pH_from_charge_balance=True, db=db)
+    for i in (a, b):
+        if ends.failure[i]:
+            raise InputError(f"mixing: end-member {samples.names[i]!r} could not be computed: {ends.failure[i]}")
+    mixed, q, _ = mixture_samples(samples, hydrothermal, seawater, fractions, db, ends.charge_imbalance, rule)
+    return mixed, q
 
 
 def mixing_energetics(samples, hydrothermal, seawater, reactions, fractions=None, temperatures_C=None,
@@ -28,15 +41,11 @@ def mixing_energetics(samples, hydrothermal, seawater, reactions, fractions=None
     """
     db = default_database() if db is None else db
     s = samples if isinstance(samples, SampleSet) else read_samples(samples, db=db)
-    a, b = end_member_row(s, hydrothermal), end_member_row(s, seawater)
-    ends = speciate(s, activity_model_name, pH_from_charge_balance=True, db=db)
-    for i in (a, b):
-        if ends.failure[i]:
-            raise InputError(f"mixing: end-member {s.names[i]!r} could not be computed: {ends.failure[i]}")
     if temperatures_C is not None:
+        a, b = end_member_row(s, hydrothermal), end_member_row(s, seawater)
         fractions = fraction_for_temperature(np.asarray(temperatures_C, float) + 273.15, s.T_K[a],
                                              s.T_K[b], float(s.P_bar[a]), rule)
-    mixed, q, W = mixture_samples(s, hydrothermal, seawater, fractions, db, ends.charge_imbalance, rule)
+    mixed, q = mixtures(s, hydrothermal, seawater, fractions, activity_model_name, db, rule)
     ev = evaluate(mixed, reactions, activity_model_name, pH_from_charge_balance=True,
                   charge_balance_target=q, db=db)
     result = ev.speciation

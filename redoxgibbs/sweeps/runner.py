@@ -26,11 +26,10 @@ from ..energetics.catalog import NamedReaction, resolve_reactions
 from ..energetics.power import CellRequirement, PowerUnits
 from ..errors import InputError
 from ..pipeline.evaluate import evaluate
+from ..pipeline.mixing import mixtures
 from ..reactions.reaction import Reaction
 from ..species.database import default_database
-from ..speciation.mixing import mixture_samples
 from ..speciation.samples import read_samples
-from ..speciation.solver import speciate
 from ..water.iapws95 import water_state
 from ..water.table import WaterTable
 
@@ -154,10 +153,8 @@ def _mixtures(spec, drawn, db):
         raise InputError(f"sweep: with mixing, only mixing:fraction and supply fields can vary, not {sorted(extra)}")
     m = spec.mixing
     ends = read_samples(pd.DataFrame([m["hydrothermal"], m["seawater"]]), db=db, below_detection=spec.below_detection)
-    charge = speciate(ends, spec.activity_model, db=db).charge_imbalance
-    mixed, target, _ = mixture_samples(ends, ends.names[0], ends.names[1], drawn["mixing:fraction"], db,
-                                       charge, m.get("temperature_rule", "enthalpy"))
-    return mixed, target
+    return mixtures(ends, ends.names[0], ends.names[1], drawn["mixing:fraction"], spec.activity_model, db,
+                    m.get("temperature_rule", "enthalpy"))
 
 
 def run_chunk(spec, index, out_dir):
