@@ -9,7 +9,7 @@ their freezing point) are not flags: those samples carry a ``failure`` instead.
 import numpy as np
 
 __all__ = ["FLAGS", "join_flags", "LOW_DENSITY", "BELOW_0C", "OUTSIDE_FORMATION_RANGE",
-           "FORMATION_ENTHALPY_MISSING", "NEAR_CRITICAL", "ALKALINITY_NOT_USED", "ionic_strength_flag"]
+           "FORMATION_ENTHALPY_MISSING", "NEAR_CRITICAL", "ALKALINITY_NOT_USED", "ionic_strength_flag", "parameter_temperature_flag"]
 
 LOW_DENSITY = "water_density_below_0.35_g_cm3"
 BELOW_0C = "below_0C_extrapolated"
@@ -29,6 +29,11 @@ def join_flags(a, b):
     if both.size:
         out.ravel()[both] = [f"{x}, {y}" for x, y in zip(a.ravel()[both], b.ravel()[both])]
     return out
+
+
+def parameter_temperature_flag(model_name):
+    """The flag of samples whose activity-model parameters are used outside their stated temperatures."""
+    return f"{model_name}_parameters_outside_their_temperatures"
 
 
 def ionic_strength_flag(model_name):
@@ -55,5 +60,8 @@ FLAGS = {
     "assumed_air_saturated:SPECIES": "N2(aq) or O2(aq) taken at saturation with air at 1 atm and the sample's "
                                      "temperature (salting-out neglected)",
     ionic_strength_flag("MODEL"): "ionic strength beyond the activity model's stated range (Davies 0.5, "
-                                  "B-dot 1 mol/kg)",
+                                  "B-dot 1, Pitzer 6 mol/kg)",
+    parameter_temperature_flag("MODEL"): "an ion pair, both ions at 0.01 mol/kg or more, whose interaction "
+                                         "parameters are used outside the temperatures their source states "
+                                         "(Pitzer model; held at the nearest end of that range)",
 }

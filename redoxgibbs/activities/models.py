@@ -1,12 +1,11 @@
-"""Activity models: ideal, Davies and B-dot (extended Debye-Hueckel), selectable by name.
+"""Activity models: ideal, Davies, B-dot (extended Debye-Hueckel) and Pitzer, selectable by name.
 
 All work on arrays: molalities (n_samples, n_species), ionic strength (n_samples,), the
 Debye-Hueckel A and B of the water layer at each sample's T, P. Each model states its validity in
 ionic strength; samples beyond it are flagged by the caller.
 
 References: Davies (1962) Ion Association, Butterworths, eq. (3.6); Helgeson (1969) Am. J. Sci.
-267, 729, eq. (4) and Table 2 (B-dot); Truesdell & Jones (1974) for the neutral-species term;
-Drummond (1981) Ph.D. thesis, Pennsylvania State Univ. (CO2 activity coefficient in NaCl).
+267, 729, eq. (4) and Table 2 (B-dot); neutral species as in ``neutral.py``; the Pitzer model in ``pitzer.py``.
 """
 
 from dataclasses import dataclass
@@ -17,6 +16,8 @@ import numpy as np
 import pandas as pd
 
 from ..errors import InputError
+from .neutral import log10_gamma_neutral
+from .pitzer import PitzerModel
 from ..water.iapws95 import M_WATER_KG_PER_MOL as M_WATER_KG
 
 __all__ = [
@@ -26,7 +27,6 @@ __all__ = [
     "log10_gamma_davies",
     "log10_gamma_bdot",
     "bdot_helgeson_1969",
-    "log10_gamma_co2_drummond_1981",
     "log10_water_activity",
     "log10_water_activity_extended_dh",
     "debye_hueckel_sigma",
@@ -39,12 +39,6 @@ DEFAULT_ION_SIZE_ANGSTROM = {1: 4.0, 2: 5.0, 3: 9.0}  # common practice for unli
 # Helgeson (1969) Table 2: B-dot [kg/mol] along saturation, from memory
 _BDOT_T_C = np.array([25.0, 50.0, 100.0, 150.0, 200.0, 250.0, 300.0])
 _BDOT = np.array([0.041, 0.043, 0.046, 0.047, 0.047, 0.044, 0.035])
-
-# Setschenow coefficients k [kg/mol], log10 gamma = k I, of dissolved gases in NaCl solutions near
-# 25 C (Weisenberger & Schumpe 1996, AIChE J. 42, 298, evaluated for NaCl; from memory).
-SETSCHENOW_K = {"O2(aq)": 0.141, "N2(aq)": 0.130, "H2(aq)": 0.105, "CH4(aq)": 0.127,
-                "H2S(aq)": 0.061, "CO(aq)": 0.130, "N2O(aq)": 0.110}
-
 
 def ionic_strength(molality, charge):
     """I = 1/2 sum m_i z_i^2 [mol/kg]; molality (..., n_species), charge (n_species,)."""
@@ -71,17 +65,6 @@ def log10_gamma_bdot(charge, ion_size, I, A, B, bdot):
     sI = np.sqrt(I)[..., None]
     z2 = np.asarray(charge, float) ** 2
     return -A[..., None] * z2 * sI / (1 + np.asarray(ion_size) * B[..., None] * sI) + (bdot * I)[..., None]
-
-
-def log10_gamma_co2_drummond_1981(T_K, I):
-    """log10 gamma of CO2(aq) in NaCl solutions, Drummond (1981), as given by many later works.
-
-    ln gamma = (C + F T + G/T) I - (E + H T) I/(I + 1), C = -1.0312, F = 1.2806e-3, G = 255.9,
-    E = 0.4445, H = -1.606e-3 (T in K; from memory). Valid 0-400 C, I up to about 4 mol/kg.
-    """
-    T = np.asarray(T_K, float)
-    ln_gamma = (-1.0312 + 1.2806e-3 * T + 255.9 / T) * I - (0.4445 - 1.606e-3 * T) * I / (I + 1)
-    return ln_gamma / np.log(10)
 
 
 def log10_water_activity(total_solute_molality):
@@ -152,6 +135,10 @@ class ActivityModel:
 
     name: str
     I_max: float
+    #: ions whose complexes the model carries in its own parameters (none: complexes are species)
+    basis_ions: tuple = ()
+    #: complexes of those ions that stay species of the model
+    model_species: tuple = ()
 
     def log10_gamma(self, names, charges, I, T_K, A, B):
         """log10 gamma (n_samples, n_species) of the species at ionic strength I per sample."""
@@ -165,14 +152,8 @@ class ActivityModel:
             sizes = ion_sizes_angstrom(names, charges)
             out = log10_gamma_bdot(charges, sizes, I, A, B, bdot_helgeson_1969(T_K))
         neutral = charges == 0
-        out[:, neutral] = 0.0
-        for j, name in enumerate(names):
-            if name == "CO2(aq)":
-                out[:, j] = log10_gamma_co2_drummond_1981(T_K, I)
-            elif name in SETSCHENOW_K:
-                out[:, j] = SETSCHENOW_K[name] * I
+        out[:, neutral] = log10_gamma_neutral([nm for nm, c in zip(names, neutral) if c], T_K, I)
         return out
-
 
     def log10_water_activity(self, names, charges, molality, I, T_K, A, B):
         """log10 a_w (n_samples,) consistent with the model's ion activity coefficients."""
@@ -186,13 +167,39 @@ class ActivityModel:
         return log10_water_activity_extended_dh(molality, charges, ion_sizes_angstrom(names, charges), I,
                                                 A, B, bdot_helgeson_1969(T_K) * molality[:, ions].sum(axis=1))
 
+    def outside_temperature_range(self, names, charges, molality, T_K):
+        """These models state no per-parameter temperature ranges: nothing is flagged (n,)."""
+        return np.zeros(molality.shape[0], bool)
+
+    def at(self, names, charges, T_K, A, B):
+        """The model at fixed states (n,): its ``activities(molality, rows)`` gives log10 gamma and
+        log10 a_w of molalities at those states (every model has this method)."""
+        return _DebyeHueckelAtStates(self, tuple(names), np.asarray(charges, float), T_K, A, B)
+
+
+@dataclass(frozen=True)
+class _DebyeHueckelAtStates:
+    model: ActivityModel
+    names: tuple
+    charges: np.ndarray
+    T_K: np.ndarray
+    A: np.ndarray
+    B: np.ndarray
+
+    def activities(self, molality, rows=slice(None)):
+        """log10 gamma (n, s) and log10 a_w (n,) of the molalities (n, s) of the states ``rows``."""
+        I = ionic_strength(molality, self.charges)
+        T, A, B = self.T_K[rows], self.A[rows], self.B[rows]
+        return (self.model.log10_gamma(self.names, self.charges, I, T, A, B),
+                self.model.log10_water_activity(self.names, self.charges, molality, I, T, A, B))
+
 
 MODELS = {"ideal": ActivityModel("ideal", np.inf), "davies": ActivityModel("davies", 0.5),
-          "bdot": ActivityModel("bdot", 1.0)}
+          "bdot": ActivityModel("bdot", 1.0), "pitzer": PitzerModel()}
 
 
 def activity_model(name):
-    """The activity model called ``name`` ('ideal', 'davies' or 'bdot')."""
+    """The activity model called ``name`` ('ideal', 'davies', 'bdot' or 'pitzer')."""
     try:
         return MODELS[name.strip().lower()]
     except (KeyError, AttributeError):

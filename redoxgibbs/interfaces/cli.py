@@ -7,6 +7,7 @@ import sys
 
 import numpy as np
 
+from ..activities.models import MODELS
 from ..energetics.catalog import catalog, couples_present, enumerate_reactions, resolve_reactions
 from ..energetics.insitu import DEFAULT_MINIMUM_ENERGY_KJ
 from ..errors import RedoxGibbsError
@@ -223,7 +224,7 @@ def _parser():
     std.set_defaults(run=_stdstate)
     spc = sub.add_parser("speciation", help="in-situ speciation of a table of fluid samples")
     spc.add_argument("samples", help="CSV: sample, T [degC], P [bar], pH, SPECIES [UNIT] columns")
-    spc.add_argument("--activity-model", choices=("ideal", "davies", "bdot"), default="bdot")
+    spc.add_argument("--activity-model", choices=tuple(MODELS), default="bdot")
     spc.add_argument("--below-detection", choices=BELOW_DETECTION_POLICIES, default="not-measured",
                      help="cells such as '<0.1', 'bdl', 'nd': not measured (default), at the limit, or half of it")
     spc.add_argument("--pH-from-charge-balance", action="store_true",
@@ -235,7 +236,7 @@ def _parser():
     ins.add_argument("samples", help="CSV as for 'speciation'")
     ins.add_argument("--reaction", action="append", required=True,
                      help="a catalog name or a reaction string; repeat for several")
-    ins.add_argument("--activity-model", choices=("ideal", "davies", "bdot"), default="bdot")
+    ins.add_argument("--activity-model", choices=tuple(MODELS), default="bdot")
     ins.add_argument("--below-detection", choices=BELOW_DETECTION_POLICIES, default="not-measured",
                      help="cells such as '<0.1', 'bdl', 'nd': not measured (default), at the limit, or half of it")
     ins.add_argument("--pH-from-charge-balance", action="store_true")
@@ -272,7 +273,7 @@ def _parser():
     mix.add_argument("--temperatures", help="comma-separated mixture temperatures [degC]")
     mix.add_argument("--temperature-rule", choices=("enthalpy", "linear"), default="enthalpy")
     mix.add_argument("--reaction", action="append", required=True)
-    mix.add_argument("--activity-model", choices=("ideal", "davies", "bdot"), default="bdot")
+    mix.add_argument("--activity-model", choices=tuple(MODELS), default="bdot")
     mix.add_argument("--below-detection", choices=BELOW_DETECTION_POLICIES, default="not-measured",
                      help="cells such as '<0.1', 'bdl', 'nd': not measured (default), at the limit, or half of it")
     mix.add_argument("--plot", help="write the energy-against-temperature figure to this PNG/SVG file")

@@ -10,6 +10,7 @@ import difflib
 import math
 from dataclasses import dataclass, field
 
+from ..activities.models import MODELS
 from ..energetics.power import SUPPLY_PARAMETERS
 from ..errors import InputError
 
@@ -97,7 +98,7 @@ SWEEP = {
 
 SCENARIO = {
     "title": Key("str", "report title"),
-    "activity_model": Key("str", "activity model", choices=("ideal", "davies", "bdot")),
+    "activity_model": Key("str", "activity model", choices=tuple(MODELS)),
     "below_detection": Key("str", "how cells below the detection limit ('<0.1', 'bdl', 'nd') are taken",
                            choices=("not-measured", "detection-limit", "half-limit")),
     "minimum_energy_kJ_per_mol": Key("number", "smallest |dGr| a catabolism is taken to use [kJ/mol]",

@@ -15,7 +15,7 @@ import pandas as pd
 
 from ..activities.models import activity_model, ionic_strength, log10_water_activity
 from ..errors import InputError, OutOfValidityError
-from ..flags import ALKALINITY_NOT_USED, ionic_strength_flag, join_flags
+from ..flags import ALKALINITY_NOT_USED, ionic_strength_flag, join_flags, parameter_temperature_flag
 from ..species.database import R_J_MOL_K, default_database
 from ..species.properties import standard_properties
 from ..water.born import debye_hueckel_A, debye_hueckel_B
@@ -24,7 +24,7 @@ from ..water.ice import freezing_temperature
 from ..water.iapws95 import psat_convention_bar, water_state
 from ..water.melting import T_TRIPLE_K
 from .samples import SampleSet, read_samples
-from .system import build_system
+from .system import build_system, complexes_of
 
 __all__ = ["SpeciationResult", "speciate", "species_in_samples"]
 
@@ -59,6 +59,7 @@ class SpeciationResult:
     iterations: np.ndarray              # Newton iterations per sample (both stages), (n,)
     activity_model: str
     beyond_model_validity: np.ndarray   # ionic strength above the model's stated limit, (n,)
+    outside_model_temperatures: np.ndarray  # parameters used outside their stated T range, (n,)
     present: np.ndarray                 # bool (n, n_species): built only from measured components
     density_estimated: np.ndarray       # per-litre units converted with an estimated density, (n,)
     failure: np.ndarray = None          # per sample: why it could not be computed ('' if it was)
@@ -99,6 +100,8 @@ class SpeciationResult:
         """Per sample, the comma-joined validity flags of the speciation ('' where none)."""
         flags = np.full(len(self.samples), "", dtype=object)
         flags[self.beyond_model_validity] = ionic_strength_flag(self.activity_model)
+        flags = join_flags(flags, np.where(self.outside_model_temperatures,
+                                           parameter_temperature_flag(self.activity_model), ""))
         return join_flags(flags, self.input_flags)
 
     def to_long_frame(self):
@@ -179,9 +182,11 @@ def _newton(system, model, logK, A, B, T_K, totals, fixed_log_a, log_aH, charge_
     is_fixed = np.column_stack([fixed, np.zeros(n, bool)])
     fixed_full = np.column_stack([np.where(fixed, fixed_log_a, 0.0), np.zeros(n)])
     free_masters = np.column_stack([~fixed, np.zeros(n, bool)]).astype(float)  # log a = x + lg
-    if start is None:   # activity coefficients of the masters' own ionic strength
-        I = ionic_strength(np.nan_to_num(totals), z[:k])
-        lg = model.log10_gamma(system.species, z, I, T_K, A, B)
+    at_states = model.at(system.species, z, T_K, A, B)
+    if start is None:   # activity coefficients of the masters alone, at their totals
+        m0 = np.zeros((n, len(system.species)))
+        m0[:, :k] = np.nan_to_num(totals)
+        lg = at_states.activities(m0)[0]
         log_aw = log10_water_activity(np.nan_to_num(totals).sum(axis=1))
     else:
         lg, log_aw = start[1].copy(), start[2].copy()
@@ -221,9 +226,7 @@ def _newton(system, model, logK, A, B, T_K, totals, fixed_log_a, log_aH, charge_
         # one fixed-point update of gamma and a_w at the current unknowns, then a Newton step at
         # those activity coefficients (their lag shrinks the error about 50-fold per iteration)
         ma = molalities(idx, lg[idx], log_aw[idx])
-        I_now = ionic_strength(ma, z)
-        lg_new = model.log10_gamma(system.species, z, I_now, T_K[idx], A[idx], B[idx])
-        aw_new = model.log10_water_activity(system.species, z, ma, I_now, T_K[idx], A[idx], B[idx])
+        lg_new, aw_new = at_states.activities(ma, idx)
         changed = np.abs(lg_new - lg[idx]).max(axis=1)
         # concentrated solutions (pH near 0 or 14, brines) can make the plain update of gamma
         # oscillate: take half the share of it wherever the change grew, and a larger share again
@@ -464,7 +467,7 @@ def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, 
     s = samples if isinstance(samples, SampleSet) else read_samples(samples, db=db)
     model = activity_model(activity_model_name)
     masters, gas_masters, totals = _components(s, db)
-    system = build_system(masters, db)
+    system = build_system(masters, db, omit=complexes_of(model.basis_ions, db) - set(model.model_species))
     missing_pH = np.isnan(s.pH)
     by_alkalinity = missing_pH & np.isfinite(s.alkalinity_eq_kg)
     if (missing_pH & ~by_alkalinity).any() and not pH_from_charge_balance:
@@ -534,6 +537,7 @@ def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, 
         composition=system.nu,
         minerals=system.minerals, saturation_index=si, iterations=iterations,
         activity_model=model.name, beyond_model_validity=I > model.I_max, present=present,
+        outside_model_temperatures=model.outside_temperature_range(system.species, system.charge, m, s.T_K),
         density_estimated=s.density_estimated, failure=failure, input_flags=input_flags,
         standard_states=props, standard_rows=ok,
         water_per_kg_solution=W,

@@ -14,7 +14,7 @@ import numpy as np
 
 from ..errors import InputError
 
-__all__ = ["ChemicalSystem", "build_system", "decompose"]
+__all__ = ["ChemicalSystem", "build_system", "complexes_of", "decompose"]
 
 _PSEUDO = {"H2": "H(0)", "O2": "O(0)"}
 
@@ -72,8 +72,17 @@ class ChemicalSystem:
     nu_H_min: np.ndarray
 
 
-def build_system(master_names, db):
-    """Every aqueous species and mineral of ``db`` built from the masters, H+ and H2O."""
+def complexes_of(basis, db):
+    """Aqueous species of ``db`` built from the ions ``basis`` (with H+ and H2O) other than the
+    basis ions themselves: the complexes an activity model may carry in its own parameters."""
+    masters = {b: _heavy_elements(db.record(b)) for b in basis}
+    return {name for name in db.names if name not in masters and db.record(name).state == "aq"
+            and _heavy_elements(db.record(name)) and decompose(db.record(name), masters, db) is not None}
+
+
+def build_system(master_names, db, omit=frozenset()):
+    """Every aqueous species and mineral of ``db`` built from the masters, H+ and H2O, except the
+    species ``omit`` (complexes the activity model carries in its parameters)."""
     masters = {}
     for name in master_names:
         rec = db.record(name)
@@ -88,7 +97,7 @@ def build_system(master_names, db):
     rows, minerals, mineral_rows = [], [], []
     for name in db.names:
         rec = db.record(name)
-        if rec.state not in ("aq", "solid"):
+        if rec.state not in ("aq", "solid") or (name in omit and name not in masters):
             continue
         found = decompose(rec, masters, db)
         if found is None:

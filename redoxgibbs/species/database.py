@@ -297,8 +297,8 @@ def _kind(columns):
         return "heat_capacity"
     if "test" in cols and "check" in cols:
         return "verification"  # the verification ledger (species/ledger.py), not a species record
-    if "ion_size_angstrom" in cols:
-        return "activity"  # read by the activity layer, not a species record
+    if "ion_size_angstrom" in cols or {"kind", "parameter", "form"} <= cols:
+        return "activity"  # ion sizes, Pitzer parameters: read by the activity layer, not species records
     raise SpeciesDataError(f"species file with columns {sorted(cols)} is of no known kind")
 
 
