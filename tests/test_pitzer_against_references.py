@@ -13,14 +13,14 @@ import jax
 import numpy as np
 import pandas as pd
 import pytest
+from test_freezing_against_references import SEAWATER
 
 from redoxgibbs.activities.models import activity_model
 from redoxgibbs.speciation.solver import speciate
 from redoxgibbs.water.ice import freezing_temperature
-from test_freezing_against_references import SEAWATER
 
 jax.config.update("jax_enable_x64", True)
-import pytzer  # noqa: E402  (after x64 is set: pytzer computes in JAX)
+import pytzer
 
 PITZER = activity_model("pitzer")
 SALTS = {"NaCl": (("Na+", 1, 1), ("Cl-", -1, 1)), "KCl": (("K+", 1, 1), ("Cl-", -1, 1)),

@@ -16,22 +16,22 @@ import numpy as np
 import pandas as pd
 
 from ..errors import InputError
+from ..water.iapws95 import M_WATER_KG_PER_MOL as M_WATER_KG
 from .neutral import log10_gamma_neutral
 from .pitzer import PitzerModel
-from ..water.iapws95 import M_WATER_KG_PER_MOL as M_WATER_KG
 
 __all__ = [
+    "MODELS",
     "ActivityModel",
     "activity_model",
-    "ionic_strength",
-    "log10_gamma_davies",
-    "log10_gamma_bdot",
     "bdot_helgeson_1969",
-    "log10_water_activity",
-    "log10_water_activity_extended_dh",
     "debye_hueckel_sigma",
     "ion_sizes_angstrom",
-    "MODELS",
+    "ionic_strength",
+    "log10_gamma_bdot",
+    "log10_gamma_davies",
+    "log10_water_activity",
+    "log10_water_activity_extended_dh",
 ]
 
 DEFAULT_ION_SIZE_ANGSTROM = {1: 4.0, 2: 5.0, 3: 9.0}  # common practice for unlisted ions

@@ -24,12 +24,23 @@ import numpy as np
 import pandas as pd
 
 from ..errors import InputError
-from .neutral import log10_gamma_neutral
 from ..water.iapws95 import M_WATER_KG_PER_MOL as M_WATER_KG
+from .neutral import log10_gamma_neutral
 
-__all__ = ["PitzerModel", "pitzer_activities", "pitzer_g", "pitzer_g_prime", "unsymmetrical_j_pitzer_1975",
-           "e_theta", "pitzer_parameter_table", "debye_hueckel_aphi_moller_1988", "SIGNIFICANT_MOLALITY", "B_PITZER", "BASIS_IONS",
-           "MODEL_COMPLEXES"]
+__all__ = [
+    "BASIS_IONS",
+    "B_PITZER",
+    "MODEL_COMPLEXES",
+    "SIGNIFICANT_MOLALITY",
+    "PitzerModel",
+    "debye_hueckel_aphi_moller_1988",
+    "e_theta",
+    "pitzer_activities",
+    "pitzer_g",
+    "pitzer_g_prime",
+    "pitzer_parameter_table",
+    "unsymmetrical_j_pitzer_1975",
+]
 
 B_PITZER = 1.2              # kg^0.5 mol^-0.5, Pitzer (1973), common to every ion pair
 ALPHA2 = 12.0               # kg^0.5 mol^-0.5, Harvie et al. (1984) for pairs with a beta2 term
