@@ -9,7 +9,8 @@ their freezing point) are not flags: those samples carry a ``failure`` instead.
 import numpy as np
 
 __all__ = ["FLAGS", "join_flags", "LOW_DENSITY", "BELOW_0C", "OUTSIDE_FORMATION_RANGE",
-           "FORMATION_ENTHALPY_MISSING", "NEAR_CRITICAL", "ALKALINITY_NOT_USED", "ionic_strength_flag", "parameter_temperature_flag"]
+           "FORMATION_ENTHALPY_MISSING", "NEAR_CRITICAL", "ALKALINITY_NOT_USED", "T_AT_FREEZING",
+           "ionic_strength_flag", "parameter_temperature_flag"]
 
 LOW_DENSITY = "water_density_below_0.35_g_cm3"
 BELOW_0C = "below_0C_extrapolated"
@@ -17,6 +18,7 @@ OUTSIDE_FORMATION_RANGE = "outside_formation_T_range"
 FORMATION_ENTHALPY_MISSING = "formation_enthalpy_missing"
 NEAR_CRITICAL = "near_critical_point"
 ALKALINITY_NOT_USED = "alkalinity_not_used"
+T_AT_FREEZING = "T_at_freezing_point"
 
 
 def join_flags(a, b):
@@ -54,6 +56,8 @@ FLAGS = {
                    "capacities of aqueous species diverge (Gibbs energies stay finite)",
     ALKALINITY_NOT_USED: "an alkalinity was given with a pH: the pH is used, the alkalinity only where "
                          "the pH is blank",
+    T_AT_FREEZING: "the temperature is the fluid's own freezing point at its pressure (a 'freezing' cell, or a "
+                   "blank one at a body's ice-ocean interface), from its water activity",
     "below_detection:SPECIES": "the species' cell was reported below the detection limit and taken by "
                                "the chosen policy (not measured, the limit, or half of it)",
     "assumed:SPECIES": "the species' amount is an assumed value ('assumed X' in the table)",

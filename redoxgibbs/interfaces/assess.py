@@ -66,7 +66,7 @@ def run_assessment(scenario_path, quiet=False):
                         f"energies of {len(scenario.reactions)} reactions", quiet)
     supplies = list({x.describe(): x for site in scenario.sites for x in site.supplies}.values())
     ev = evaluate(samples, scenario.reactions, scenario.activity_model, supplies, scenario.cells,
-                  scenario.power_units, minimum_energy_kJ=scenario.minimum_energy_kJ, db=db)
+                  scenario.power_units, minimum_energy_kJ=scenario.minimum_energy_kJ, db=db, body=scenario.body)
     _progress(3, steps, f"power and cells for {len(supplies)} supply models", quiet)
     frames = _power_frames(scenario, ev)
     mixing = None

@@ -15,6 +15,7 @@ from pathlib import Path
 import numpy as np
 import pandas as pd
 
+from ..bodies.body import Body
 from ..energetics.catalog import catalog, couples_present, enumerate_reactions, resolve_reactions
 from ..energetics.insitu import DEFAULT_MINIMUM_ENERGY_KJ
 from ..energetics.power import CellRequirement, PowerUnits, Supply
@@ -58,6 +59,7 @@ class Scenario:
     source: Path = None
     mixing: dict = None
     raw: dict = None
+    body: Body = None
 
     def site_of_samples(self):
         """The site name of every sample, in sample order."""
@@ -73,6 +75,13 @@ def _site_frame(site, folder):
         return read_sample_table(path)
     except InputError as err:
         raise InputError(f"scenario: site {site['name']!r}: {err}") from None
+
+
+def _body(spec):
+    """The scenario's [body], or None."""
+    if spec is None:
+        return None
+    return Body(**{k: v for k, v in spec.items() if k != "profile_points"})
 
 
 def _supplies(specs):
@@ -129,11 +138,13 @@ def load_scenario(path):
     data = _read_toml(path)
     check_scenario(data)
     db = default_database()
+    body = _body(data.get("body"))
     frames, sets, names = [], [], []
     for site in data["sites"]:
         frame = _site_frame(site, path.parent)
         try:
-            sets.append(read_samples(frame, db=db, below_detection=data.get("below_detection", "not-measured")))
+            sets.append(read_samples(frame, db=db, below_detection=data.get("below_detection", "not-measured"),
+                                     body=body))
         except InputError as err:
             raise InputError(f"scenario: site {site['name']!r}: {err}") from None
         frames.append(frame.assign(site=site["name"]))
@@ -164,7 +175,7 @@ def load_scenario(path):
                     cells=cells, power_units=power_units,
                     per_species=[db.resolve(x) for x in reaction_spec.get("per_species", [])],
                     minimum_energy_kJ=float(data.get("minimum_energy_kJ_per_mol", DEFAULT_MINIMUM_ENERGY_KJ)),
-                    source=path, mixing=mixing, raw=data)
+                    source=path, mixing=mixing, raw=data, body=body)
 
 
 def _distribution(column, spec):
@@ -215,4 +226,4 @@ def sweep_spec(scenario):
                      cells=site.cells if site else scenario.cells,
                      power_units=scenario.power_units,
                      water=section.get("water", "exact"), mixing=mixing,
-                     below_detection=scenario.raw.get("below_detection", "not-measured"))
+                     below_detection=scenario.raw.get("below_detection", "not-measured"), body=scenario.body)

@@ -11,7 +11,7 @@ import math
 from dataclasses import dataclass, field
 
 from ..activities.models import MODELS
-from ..energetics.power import SUPPLY_PARAMETERS
+from ..energetics.power import SUPPLY_OPTIONAL, SUPPLY_PARAMETERS
 from ..errors import InputError
 
 __all__ = ["Key", "SCENARIO", "check_scenario", "schema_reference"]
@@ -40,12 +40,27 @@ SUPPLY = {
     "kind": Key("str", "supply model", required=True,
                 choices=tuple(SUPPLY_PARAMETERS)),
     "flux_kg_per_s": Key("number", "fluid mass flux through the habitat [kg/s] (flow-through)", **_POSITIVE),
-    "volume_m3": Key("number", "habitat volume [m3] (flow-through)", **_POSITIVE),
+    "volume_m3": Key("number", "habitat volume [m3] (flow-through; serpentinization, ice-delivery and hydrothermal: "
+                               "default the body's ocean)", **_POSITIVE),
     "tau_s": Key("number", "renewal time of the reactant pool [s] (turnover)", **_POSITIVE),
     "areal_flux_mol_per_m2_yr": Key("number", "flux of the limiting reactant [mol/m2/yr] (areal-flux)", **_POSITIVE),
     "thickness_m": Key("number", "thickness of the layer it feeds [m] (areal-flux)", **_POSITIVE),
-    "limiting_species": Key("str", "the species the areal flux delivers (areal-flux)"),
+    "limiting_species": Key("str", "the species the flux delivers (areal-flux; ice-delivery: the oxidant)"),
     "rate_mol_per_L_s": Key("number", "reaction rate [mol/L/s] (rate)", **_POSITIVE),
+    "rock_kg_per_yr": Key("number", "rock altered per year [kg/yr] (serpentinization)", **_POSITIVE),
+    "feo_mass_fraction": Key("number", "FeO mass fraction of the rock [kg/kg] (serpentinization)",
+                             within=(0.0, 1.0)),
+    "fe_oxidized_fraction": Key("number", "share of its Fe(II) oxidized to Fe(III) (serpentinization)",
+                                within=(0.0, 1.0)),
+    "surface_production_mol_per_m2_yr": Key("number", "oxidant production at the surface [mol/m2/yr] "
+                                            "(ice-delivery)", **_POSITIVE),
+    "delivery_efficiency": Key("number", "share of the surviving oxidant delivered through the shell "
+                               "(ice-delivery)", within=(0.0, 1.0)),
+    "resurfacing_time_yr": Key("number", "surface age: time to resurface the ice [yr] (ice-delivery)", **_POSITIVE),
+    "surface_lifetime_yr": Key("number", "lifetime of the oxidant at the surface [yr] (ice-delivery; default: "
+                               "no loss)", **_POSITIVE),
+    "heat_flow_W": Key("number", "heat carried out of the seafloor by the fluid [W] (hydrothermal)", **_POSITIVE),
+    "temperature_rise_K": Key("number", "the fluid's temperature rise [K] (hydrothermal)", **_POSITIVE),
 }
 
 CELLS = {
@@ -96,8 +111,23 @@ SWEEP = {
     }),
 }
 
+BODY = {
+    "name": Key("str", "the body's name", required=True),
+    "radius_km": Key("number", "radius [km]", required=True, **_POSITIVE),
+    "mass_kg": Key("number", "mass [kg] (or surface_gravity_m_s2)", **_POSITIVE),
+    "surface_gravity_m_s2": Key("number", "surface gravity [m/s2] (or mass_kg)", **_POSITIVE),
+    "ice_shell_km": Key("number", "thickness of the ice shell [km]", required=True, non_negative=True),
+    "ice_density_kg_m3": Key("number", "density of the ice shell [kg/m3] (default 920)", **_POSITIVE),
+    "ocean_depth_km": Key("number", "thickness of the liquid ocean [km]", required=True, **_POSITIVE),
+    "surface_pressure_bar": Key("number", "pressure at the surface [bar] (default 0)", non_negative=True),
+    "profile_points": Key("integer", "depths of the report's energetics-against-depth profile (default 21)",
+                          within=(2, 500)),
+}
+
 SCENARIO = {
     "title": Key("str", "report title"),
+    "body": Key("table", "an icy body: its ocean column turns 'depth [km]' (below the ice-ocean interface) or "
+                         "'above seafloor [km]' sample columns into pressures", keys=BODY),
     "activity_model": Key("str", "activity model", choices=tuple(MODELS)),
     "below_detection": Key("str", "how cells below the detection limit ('<0.1', 'bdl', 'nd') are taken",
                            choices=("not-measured", "detection-limit", "half-limit")),
@@ -194,10 +224,10 @@ def _check_supply(where, table):
     missing = [k for k in SUPPLY_PARAMETERS.get(kind, ()) if k not in table]
     if missing:
         _fail(where, f"a {kind} supply needs {', '.join(missing)}")
-    extra = [k for k in table if k != "kind" and k not in SUPPLY_PARAMETERS.get(kind, ())]
+    allowed = SUPPLY_PARAMETERS.get(kind, ()) + SUPPLY_OPTIONAL.get(kind, ())
+    extra = [k for k in table if k != "kind" and k not in allowed]
     if extra:
-        _fail(where, f"{', '.join(extra)} do not belong to a {kind} supply (it takes "
-                     f"{', '.join(SUPPLY_PARAMETERS[kind])})")
+        _fail(where, f"{', '.join(extra)} do not belong to a {kind} supply (it takes {', '.join(allowed)})")
 
 
 def _check_inputs(where, v):

@@ -103,23 +103,25 @@ class Evaluation:
 
 def evaluate(samples, reactions, activity_model="bdot", supplies=(), cells=None, units=None, *,
              minimum_energy_kJ=DEFAULT_MINIMUM_ENERGY_KJ, pH_from_charge_balance=False,
-             charge_balance_target=None, water=water_state, db=None):
+             charge_balance_target=None, water=water_state, db=None, body=None):
     """Evaluate ``reactions`` (NamedReaction) in ``samples`` (a path, DataFrame or SampleSet).
 
     Speciation with ``activity_model`` (pH from charge balance where asked), in-situ Gibbs energies
     and energy densities, then power [W/m3] for each of ``supplies`` and the per-cell power demand
-    of ``cells`` (a :class:`~redoxgibbs.energetics.power.CellRequirement`). A sample that cannot be
+    of ``cells`` (a :class:`~redoxgibbs.energetics.power.CellRequirement`); ``body`` (a
+    :class:`~redoxgibbs.bodies.body.Body`) places depths in its ocean and feeds the body-scale
+    supply models. A sample that cannot be
     computed carries its reason in ``failure`` and NaN values; the others are computed.
     """
     db = default_database() if db is None else db
-    s = samples if isinstance(samples, SampleSet) else read_samples(samples, db=db)
+    s = samples if isinstance(samples, SampleSet) else read_samples(samples, db=db, body=body)
     cells = CellRequirement() if cells is None else cells
     shared = SharedWater(water)
     result = speciate(s, activity_model, pH_from_charge_balance=pH_from_charge_balance, db=db,
                       charge_balance_target=charge_balance_target, water=shared)
     energetics = insitu_energetics(result, reactions, db=db, minimum_energy_kJ=minimum_energy_kJ,
                                    gas_fugacity=s.gas_fugacity_bar, water=shared)
-    powers = [power_per_volume(x, energetics) for x in supplies]
+    powers = [power_per_volume(x, energetics, body) for x in supplies]
     low, high = power_per_cell_W(cells, result.T_K)
     return Evaluation(samples=s, speciation=result, energetics=energetics, supplies=list(supplies),
                       power_W_per_m3=powers, cells_W_low=low, cells_W_high=high, cells=cells,

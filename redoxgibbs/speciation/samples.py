@@ -15,13 +15,14 @@ import numpy as np
 import pandas as pd
 
 from ..errors import InputError, UnknownSpeciesError
-from ..flags import join_flags
+from ..flags import T_AT_FREEZING, join_flags
 from ..species.database import default_database
 from ..species.elements import molar_mass_g_mol
 from ..units import to_unit
-from ..water.iapws95 import T_CRITICAL_K, psat_convention_bar
+from ..water.iapws95 import T_CRITICAL_K, liquid_density_kg_m3, psat_convention_bar
+from ..water.melting import melting_temperature
 
-__all__ = ["SampleSet", "read_samples", "read_sample_table", "parse_column_header", "merge_sample_sets"]
+__all__ = ["SampleSet", "merge_sample_sets", "parse_column_header", "read_sample_table", "read_samples"]
 
 _HEADER = re.compile(r"^\s*(.+?)\s*\[\s*(.+?)\s*\]\s*$")
 _PREFIX = {"": 1.0, "m": 1e-3, "u": 1e-6, "n": 1e-9}
@@ -35,6 +36,8 @@ for p, f in _PREFIX.items():
 _MASS_UNITS = {"mg/l": ("per_litre", 1e-3), "ug/l": ("per_litre", 1e-6),
                "ppm": ("per_kg_solution", 1e-3), "ppb": ("per_kg_solution", 1e-6)}
 _GAS_UNITS = ("bar", "atm", "pa", "mpa", "kpa")
+#: Columns giving a position in a body's ocean instead of a pressure (lower-case names)
+OCEAN_POSITION_COLUMNS = ("depth", "above seafloor")
 SEAWATER_DENSITY_SLOPE = 0.73  # kg/L per kg/kg of dissolved solids, estimate stated in output
 WATER_DENSITY_25C_KG_L = 0.997047   # IAPWS-95 at 25 C, 1 bar
 
@@ -62,9 +65,12 @@ class SampleSet:
     problems: np.ndarray = None    # per sample: why it cannot be computed ('' where it can)
     alkalinity_eq_kg: np.ndarray = None   # total alkalinity [eq per kg of water], NaN: not given
     flags: np.ndarray = None       # per sample: input notes (values assumed or below detection)
+    at_freezing: np.ndarray = None  # per sample: T is to be the fluid's own freezing point at P
 
     def __post_init__(self):
         n = len(self.names)
+        if self.at_freezing is None:
+            self.at_freezing = np.zeros(n, bool)
         if self.problems is None:
             self.problems = np.full(n, "", dtype=object)
         if self.alkalinity_eq_kg is None:
@@ -85,7 +91,8 @@ class SampleSet:
             gas_fugacity_bar={k: pick(v) for k, v in self.gas_fugacity_bar.items()},
             density_kg_L=pick(self.density_kg_L), density_estimated=pick(self.density_estimated),
             notes=list(self.notes), problems=pick(self.problems),
-            alkalinity_eq_kg=pick(self.alkalinity_eq_kg), flags=pick(self.flags))
+            alkalinity_eq_kg=pick(self.alkalinity_eq_kg), flags=pick(self.flags),
+            at_freezing=pick(self.at_freezing))
 
     def insitu_density_kg_L(self, W, water_density_kg_m3):
         """Density of each fluid at its in-situ T, P [kg/L]: a measured (laboratory) density scaled
@@ -235,12 +242,15 @@ def _sample_names(column):
     return names
 
 
-def read_samples(source, db=None, below_detection="not-measured"):
+def read_samples(source, db=None, below_detection="not-measured", body=None):
     """Read a sample table (CSV path or DataFrame) into a :class:`SampleSet`, validating each cell.
 
     ``below_detection``: how cells reported below the detection limit ('<0.1', 'bdl', 'nd') are
     taken: 'not-measured' (the default), 'detection-limit' or 'half-limit'; each is noted in the
-    sample's flags.
+    sample's flags. With a ``body`` (:class:`~redoxgibbs.bodies.body.Body`), positions in its
+    ocean (``depth [km]`` below the ice-ocean interface, or ``above seafloor [km]``) stand for
+    ``P [bar]``, and a temperature cell reading ``freezing`` (or left blank at depth 0) is the
+    fluid's own freezing point at its pressure, settled by the speciation.
     """
     db = default_database() if db is None else db
     if isinstance(source, pd.DataFrame):
@@ -256,18 +266,29 @@ def read_samples(source, db=None, below_detection="not-measured"):
     t_col = next((c for c, (n, u) in headers.items() if n == "T"), None)
     if t_col is None:
         raise InputError("samples: a temperature column 'T [degC]' is required")
-    T = _numeric(frame, t_col, labels, allow_blank=False, what="temperature")
-    T_K = to_unit(T, headers[t_col][1] or "degC", "kelvin", f"column {t_col!r}")
-    P = _pressures(frame, labels, T_K)
+    depth_col = _ocean_position_column(headers, body)
+    depth = None if depth_col is None else _ocean_depth(frame, depth_col, headers[depth_col], labels, body)
+    at_freezing = _freezing_cells(frame, t_col, depth)
+    given = ~at_freezing
+    T_K = np.full(len(frame), np.nan)
+    T_K[given] = to_unit(_numeric(frame.loc[given], t_col, [labels[i] for i in np.flatnonzero(given)],
+                                  allow_blank=False, what="temperature"),
+                         headers[t_col][1] or "degC", "kelvin", f"column {t_col!r}")
+    if depth is None:
+        P = _pressures(frame, labels, T_K)
+    else:   # pure water's melting temperature until the speciation settles the fluid's own
+        P = np.full(len(frame), body.interface_pressure_bar())
+        T_K = np.where(at_freezing, melting_temperature(P * 1e5), T_K)
     problems = _state_problems(T_K, P, t_col)
     pH = _numeric(frame, "pH", labels, low=-2.0, high=16.0, what="pH") if "pH" in frame else np.full(len(frame), np.nan)
     pht_col = next((c for c, (n, u) in headers.items() if n == "pH T"), None)
     pH_T_K = T_K.copy()
+    pht_given = np.zeros(len(frame), bool)
     if pht_col:
         given = _numeric(frame, pht_col, labels, what="temperature")
-        has = ~np.isnan(given)
+        has = pht_given = ~np.isnan(given)
         pH_T_K[has] = to_unit(given[has], headers[pht_col][1] or "degC", "kelvin", f"column {pht_col!r}")
-    totals_raw, gases, reserved, columns_of = {}, {}, {"sample", "pH", t_col, pht_col}, {}
+    totals_raw, gases, reserved, columns_of = {}, {}, {"sample", "pH", t_col, pht_col, depth_col}, {}
     density = np.full(len(frame), np.nan)
     flags = np.full(len(frame), "", dtype=object)
     for col, (name, unit) in headers.items():
@@ -327,9 +348,66 @@ def read_samples(source, db=None, below_detection="not-measured"):
     _refuse_impossible_amounts(totals_raw, columns_of, labels)
     totals, estimated = _to_molality(totals_raw, density)
     alkalinity = totals.pop(ALKALINITY, np.full(len(frame), np.nan))
-    return SampleSet(names=labels, T_K=T_K, P_bar=P, pH=pH, pH_T_K=pH_T_K, totals=totals,
-                     gas_fugacity_bar=gases, density_kg_L=density, density_estimated=estimated,
-                     problems=problems, alkalinity_eq_kg=alkalinity, flags=flags)
+    flags = join_flags(flags, np.where(at_freezing, T_AT_FREEZING, ""))
+    samples = SampleSet(names=labels, T_K=T_K, P_bar=P, pH=pH, pH_T_K=pH_T_K, totals=totals,
+                        gas_fugacity_bar=gases, density_kg_L=density, density_estimated=estimated,
+                        problems=problems, alkalinity_eq_kg=alkalinity, flags=flags, at_freezing=at_freezing)
+    if depth is not None:
+        samples.P_bar = _column_pressures(samples, depth, body, db)
+        samples.T_K = np.where(at_freezing, melting_temperature(samples.P_bar * 1e5), samples.T_K)
+        samples.pH_T_K = np.where(pht_given, samples.pH_T_K, samples.T_K)
+        samples.problems = _state_problems(samples.T_K, samples.P_bar, t_col)
+    return samples
+
+
+def _ocean_position_column(headers, body):
+    """The column giving positions in a body's ocean ('depth [km]' or 'above seafloor [km]'), or
+    None; refused without a body, or beside a pressure column."""
+    found = [c for c, (n, u) in headers.items() if n.lower() in OCEAN_POSITION_COLUMNS]
+    if not found:
+        return None
+    if len(found) > 1:
+        raise InputError(f"columns {found[0]!r} and {found[1]!r}: give the position in the ocean once")
+    if any(n == "P" for n, _ in headers.values()):
+        raise InputError(f"columns 'P' and {found[0]!r}: give either the pressure or the position in the ocean")
+    if body is None:
+        raise InputError(f"column {found[0]!r}: a position in an ocean needs the body it belongs to (a [body] "
+                         "section in a scenario); give 'P [bar]' instead")
+    return found[0]
+
+
+def _ocean_depth(frame, col, header, labels, body):
+    """Depths below the body's ice-ocean interface [km] from a depth or a height above the seafloor."""
+    name, unit = header
+    km = to_unit(_numeric(frame, col, labels, allow_blank=False, what="position"), unit or "km", "km",
+                 f"column {col!r}")
+    if name.lower() == "depth":
+        return body.depth_below_interface_km(depth_km=km)
+    return body.depth_below_interface_km(above_seafloor_km=km)
+
+
+def _freezing_cells(frame, t_col, depth):
+    """Rows whose temperature is to be the fluid's freezing point: cells reading 'freezing', and
+    blank cells at the ice-ocean interface (depth 0)."""
+    text = frame[t_col].astype(str).str.strip().str.lower().to_numpy()
+    freezing = text == "freezing"
+    if depth is not None:
+        freezing |= frame[t_col].isna().to_numpy() & (depth == 0)
+    elif freezing.any():
+        raise InputError(f"column {t_col!r}: 'freezing' needs the pressure from a body's ocean column; give a "
+                         "temperature")
+    return freezing
+
+
+def _column_pressures(samples, depth_km, body, db):
+    """Pressure at each sample's depth [bar]: the ocean column above it is that sample's fluid at
+    its temperature (its in-situ density as the speciation estimates it)."""
+    W, _ = samples.water_fraction_and_density(db)
+
+    def density(P_bar):
+        return samples.insitu_density_kg_L(W, liquid_density_kg_m3(samples.T_K, P_bar * 1e5)) * 1000.0
+
+    return body.pressure_bar(depth_km, density)
 
 
 ALKALINITY = "alkalinity"       # the key of the alkalinity column among the amounts being converted
@@ -509,4 +587,5 @@ def merge_sample_sets(sets, groups, db=None):
                      pH=join("pH"), pH_T_K=join("pH_T_K"), totals=totals, gas_fugacity_bar=gases,
                      density_kg_L=join("density_kg_L"), density_estimated=join("density_estimated"),
                      notes=[x for s in sets for x in s.notes], problems=join("problems"),
-                     alkalinity_eq_kg=join("alkalinity_eq_kg"), flags=join("flags"))
+                     alkalinity_eq_kg=join("alkalinity_eq_kg"), flags=join("flags"),
+                     at_freezing=join("at_freezing"))

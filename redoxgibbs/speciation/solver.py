@@ -383,6 +383,33 @@ def _frozen_samples(samples, log10_aw, computed):
     return out
 
 
+def _at_own_freezing_points(s, activity_model_name, pH_from_charge_balance, db, charge_balance_target, water,
+                            passes=3):
+    """A copy of the samples in which those marked ``at_freezing`` take their own freezing point at
+    their pressure: speciated at the current temperature, then set to the freezing point of the
+    water activity found (three times: a_w changes by about 1e-5 per K). A freezing point colder than
+    any liquid evaluated here is the sample's failure."""
+    s = s.subset(np.ones(len(s), bool))
+    rows = np.flatnonzero(s.at_freezing & (s.problems == ""))
+    if rows.size == 0:
+        return s
+    sub = s.subset(np.isin(np.arange(len(s)), rows))
+    sub.at_freezing = np.zeros(rows.size, bool)
+    target = None if charge_balance_target is None else np.asarray(charge_balance_target, float)[rows]
+    follows = np.abs(sub.pH_T_K - sub.T_K) < 1e-9     # pH given at the in-situ temperature
+    for _ in range(passes):
+        result = speciate(sub, activity_model_name, pH_from_charge_balance, db, target, water)
+        T_freeze = result.freezing_point_K()
+        known = np.isfinite(T_freeze) & (result.failure == "")
+        sub.T_K = np.where(known, T_freeze, sub.T_K)
+        sub.pH_T_K = np.where(follows & known, sub.T_K, sub.pH_T_K)
+    s.T_K[rows], s.pH_T_K[rows] = sub.T_K, sub.pH_T_K
+    cold = rows[(result.failure == "") & ~np.isfinite(T_freeze)]
+    s.problems[cold] = ("outside validity: the fluid's freezing point at this pressure lies below the coldest "
+                        "liquid water evaluated here (-20 degC); give a temperature")
+    return s
+
+
 def species_in_samples(samples, db=None):
     """Aqueous species with a non-zero amount in at least one sample (no solving needed: a species
     is there when every component it is built from was measured above zero, or fixed by a gas)."""
@@ -465,6 +492,8 @@ def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, 
     """
     db = default_database() if db is None else db
     s = samples if isinstance(samples, SampleSet) else read_samples(samples, db=db)
+    if s.at_freezing.any():
+        s = _at_own_freezing_points(s, activity_model_name, pH_from_charge_balance, db, charge_balance_target, water)
     model = activity_model(activity_model_name)
     masters, gas_masters, totals = _components(s, db)
     system = build_system(masters, db, omit=complexes_of(model.basis_ions, db) - set(model.model_species))

@@ -22,6 +22,7 @@ from pathlib import Path
 import numpy as np
 import pandas as pd
 
+from ..bodies.body import Body
 from ..energetics.catalog import NamedReaction, resolve_reactions
 from ..energetics.power import CellRequirement, PowerUnits
 from ..errors import InputError
@@ -94,6 +95,7 @@ class SweepSpec:
     water: str = "exact"               # or "tabulated": a WaterTable over each chunk's range
     mixing: dict = None                # {"hydrothermal": row, "seawater": row, "temperature_rule"}
     below_detection: str = "not-measured"   # policy for '<0.1', 'bdl', 'nd' cells of the base sample
+    body: Body = None                  # places 'depth [km]' in its ocean; feeds body-scale supplies
 
     def __post_init__(self):
         object.__setattr__(self, "reactions", reaction_records(self.reactions))
@@ -106,7 +108,7 @@ class SweepSpec:
         return hashlib.sha256(repr((sorted(self.base.items()), sorted(self.inputs.items()), self.reactions,
                                     self.activity_model, self.n, self.chunk_size, self.seed, self.supplies,
                                     self.cells, self.power_units.per_volume, self.power_units.per_mass,
-                                    self.water, self.mixing, self.below_detection)).encode()).hexdigest()
+                                    self.water, self.mixing, self.below_detection, self.body)).encode()).hexdigest()
 
     @property
     def is_grid(self):
@@ -152,7 +154,8 @@ def _mixtures(spec, drawn, db):
     if extra:
         raise InputError(f"sweep: with mixing, only mixing:fraction and supply fields can vary, not {sorted(extra)}")
     m = spec.mixing
-    ends = read_samples(pd.DataFrame([m["hydrothermal"], m["seawater"]]), db=db, below_detection=spec.below_detection)
+    ends = read_samples(pd.DataFrame([m["hydrothermal"], m["seawater"]]), db=db, below_detection=spec.below_detection,
+                        body=spec.body)
     return mixtures(ends, ends.names[0], ends.names[1], drawn["mixing:fraction"], spec.activity_model, db,
                     m.get("temperature_rule", "enthalpy"))
 
@@ -165,7 +168,8 @@ def run_chunk(spec, index, out_dir):
         samples, charge_target = _mixtures(spec, drawn, db)
         frame = frame.iloc[:len(samples)]
     else:
-        samples, charge_target = read_samples(frame, db=db, below_detection=spec.below_detection), None
+        samples, charge_target = read_samples(frame, db=db, below_detection=spec.below_detection,
+                                              body=spec.body), None
     water = water_state
     if spec.water == "tabulated":
         water = WaterTable((samples.T_K.min() - 2.0, samples.T_K.max() + 2.0),
@@ -182,7 +186,7 @@ def run_chunk(spec, index, out_dir):
     reactions = _rebuild(spec.reactions, db)
     ev = evaluate(samples, reactions, spec.activity_model, supplies, spec.cells, spec.power_units,
                   pH_from_charge_balance=spec.mixing is not None, charge_balance_target=charge_target,
-                  water=water, db=db)
+                  water=water, db=db, body=spec.body)
     e, result = ev.energetics, ev.speciation
     out = pd.DataFrame({"draw": np.arange(start, start + len(frame))})
     for c, v in drawn.items():
