@@ -121,8 +121,8 @@ def test_oxidant_delivery_by_hand():
 
 
 def test_hydrothermal_mass_flux_against_iapws_enthalpies():
-    Q, T, P, dT = 1e9, 373.15, 200.0, 90.0
+    Q, T, P, dT = 1e9, 275.15, 200.0, 90.0
     with warnings.catch_warnings():
         warnings.simplefilter("ignore")
-        dh = (IAPWS95(T=T, P=P / 10).h - IAPWS95(T=T - dT, P=P / 10).h) * 1e3    # kJ/kg -> J/kg
+        dh = (IAPWS95(T=T + dT, P=P / 10).h - IAPWS95(T=T, P=P / 10).h) * 1e3    # kJ/kg -> J/kg
     assert hydrothermal_mass_flux_kg_per_s(Q, T, P, dT) == pytest.approx(Q / dh, rel=1e-6)

@@ -17,6 +17,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from ..errors import InputError
+from ..water.iapws95 import liquid_density_kg_m3
 
 __all__ = ["G_NEWTON", "RK4_STEPS", "Body", "pressure_uniform_density_Pa"]
 
@@ -112,6 +113,12 @@ class Body:
 
     def seafloor_area_m2(self):
         return 4.0 * np.pi * (self.interface_radius_m - self.ocean_depth_km * 1e3) ** 2
+
+    def seafloor_pressure_bar(self, T_K):
+        """Pressure at the seafloor [bar] under a column of pure liquid water at T_K [K] (IAPWS-95)."""
+        T = float(T_K)
+        return float(self.pressure_bar(np.array([self.ocean_depth_km]),
+                                       lambda P_bar: liquid_density_kg_m3(np.full(P_bar.shape, T), P_bar * 1e5))[0])
 
     def depth_below_interface_km(self, depth_km=None, above_seafloor_km=None):
         """Depth below the ice-ocean interface [km] of a depth or a height above the seafloor,

@@ -8,8 +8,8 @@ calculation needs. One published approach per function, each input with its unit
   first-order loss at the surface over the surface's age (the resurfacing time), the framework of
   Chyba (2000) Nature 403, 381 and Hand et al. (2007) Astrobiology 7, 1006 (from memory);
 - hydrothermal circulation: the fluid mass flux that carries a heat flow at a given temperature
-  rise, m = Q / [h(T) - h(T - dT)] (heat budget of a vent field, common practice), with the
-  enthalpy of IAPWS-95 water.
+  rise, m = Q / [h(T_r + dT) - h(T_r)] from the recharge temperature T_r at the seafloor's pressure
+  (heat budget of a vent field, common practice), with the enthalpy of IAPWS-95 water.
 """
 
 import numpy as np
@@ -60,12 +60,12 @@ def oxidant_delivery_mol_per_s(production_mol_per_m2_yr, area_m2, delivery_effic
     return np.asarray(production_mol_per_m2_yr, float) * area_m2 * f * delivery_efficiency / SECONDS_PER_YEAR
 
 
-def hydrothermal_mass_flux_kg_per_s(heat_flow_W, T_vent_K, P_bar, temperature_rise_K):
+def hydrothermal_mass_flux_kg_per_s(heat_flow_W, recharge_T_K, P_bar, temperature_rise_K):
     """Fluid mass flux [kg/s] carrying a heat flow [W] out of the seafloor as fluid warmed by
-    ``temperature_rise_K`` to the vent temperature [K] at pressure P [bar]: Q / [h(T) - h(T - dT)],
-    h of IAPWS-95 water (arrays broadcast)."""
-    T, P, dT = np.broadcast_arrays(np.asarray(T_vent_K, float), np.asarray(P_bar, float),
+    ``temperature_rise_K`` from the recharge temperature [K] at pressure P [bar]:
+    Q / [h(T_r + dT) - h(T_r)], h of IAPWS-95 water (arrays broadcast)."""
+    T, P, dT = np.broadcast_arrays(np.asarray(recharge_T_K, float), np.asarray(P_bar, float),
                                    np.asarray(temperature_rise_K, float))
-    hot, cold = water_state(T, P), water_state(T - dT, P)
+    hot, cold = water_state(T + dT, P), water_state(T, P)
     dh_J_per_kg = (hot.H_J_mol - cold.H_J_mol) / M_WATER_KG_PER_MOL
     return np.asarray(heat_flow_W, float) / dh_J_per_kg

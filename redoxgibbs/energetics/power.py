@@ -10,8 +10,9 @@ Supply models (each states itself in the output):
   the body's ocean): P/V = (-dGr / |nu_H2|) r_H2 / V
 - ``ice-delivery``: an oxidant produced at a body's surface and delivered through its ice shell
   (``body_supply``) into V: P/V = (-dGr / |nu_oxidant|) r_ox / V
-- ``hydrothermal``: the fluid that carries a heat flow Q at a temperature rise dT through the
-  seafloor (``body_supply``), m = Q / dh, into V: P/V = e_solution m / V
+- ``hydrothermal``: the fluid that carries a heat flow Q at a temperature rise dT from the
+  recharge temperature, at the pressure of a body's seafloor (``body_supply``), m = Q / dh, into V:
+  P/V = e_solution m / V
 where e is the energy density (per kg of solution or per litre). Computed in W/m3 and W/kg of
 fluid, reported in the units a :class:`PowerUnits` names (e.g. nW/cm3, uW/L, W/kg).
 
@@ -56,7 +57,7 @@ SUPPLY_PARAMETERS = {"flow-through": ("flux_kg_per_s", "volume_m3"), "turnover":
                      "serpentinization": ("rock_kg_per_yr", "feo_mass_fraction", "fe_oxidized_fraction"),
                      "ice-delivery": ("surface_production_mol_per_m2_yr", "delivery_efficiency",
                                       "resurfacing_time_yr", "limiting_species"),
-                     "hydrothermal": ("heat_flow_W", "temperature_rise_K")}
+                     "hydrothermal": ("heat_flow_W", "temperature_rise_K", "recharge_T_C")}
 #: Fields a supply model may take besides its own (the body-scale models: the volume fed, default
 #: the body's ocean; the oxidant's lifetime at the surface, default unlimited)
 SUPPLY_OPTIONAL = {"serpentinization": ("volume_m3",), "ice-delivery": ("volume_m3", "surface_lifetime_yr"),
@@ -92,6 +93,7 @@ class Supply:
     surface_lifetime_yr: float = np.inf
     heat_flow_W: float = np.nan
     temperature_rise_K: float = np.nan
+    recharge_T_C: float = np.nan
 
     def _into(self):
         return f"into {self.volume_m3:g} m3" if np.isfinite(self.volume_m3) else "into the body's ocean"
@@ -116,7 +118,7 @@ class Supply:
                     f"{life} {self._into()}")
         if self.kind == "hydrothermal":
             return (f"hydrothermal: {self.heat_flow_W:g} W carried by fluid warmed {self.temperature_rise_K:g} K "
-                    f"{self._into()}")
+                    f"from {self.recharge_T_C:g} degC {self._into()}")
         raise InputError(f"supply kind {self.kind!r} is unknown; use {', '.join(SUPPLY_PARAMETERS)}")
 
 
@@ -127,7 +129,7 @@ def _check_supply(supply):
         supply.describe()     # raises the error that names the known kinds
     optional = [x for x in SUPPLY_OPTIONAL.get(supply.kind, ()) if x == "volume_m3" and np.isfinite(supply.volume_m3)]
     for name in SUPPLY_PARAMETERS[supply.kind] + tuple(optional):
-        if name == "limiting_species":
+        if name in ("limiting_species", "recharge_T_C"):
             continue
         value = np.asarray(getattr(supply, name), dtype=float)
         bad = ~np.isfinite(value) | (value <= 0)
@@ -190,9 +192,12 @@ def power_per_volume(supply, energetics, body=None):
                                           supply.delivery_efficiency, supply.resurfacing_time_yr,
                                           supply.surface_lifetime_yr)
         return _per_mole_of(supply.limiting_species, supply, energetics) * rate / V
-    flux = hydrothermal_mass_flux_kg_per_s(supply.heat_flow_W, energetics.T_K, energetics.P_bar,
+    if body is None:
+        raise InputError("supply (hydrothermal): needs a [body] (the pressure at its seafloor)")
+    flux = hydrothermal_mass_flux_kg_per_s(supply.heat_flow_W, supply.recharge_T_C + 273.15,
+                                           body.seafloor_pressure_bar(supply.recharge_T_C + 273.15),
                                            supply.temperature_rise_K)
-    return e_kg * (flux / V)[:, None]
+    return e_kg * flux / V
 
 
 @dataclass(frozen=True)

@@ -8,6 +8,8 @@ import pandas as pd
 
 from ..energetics.power import power_per_cell_W
 from ..pipeline.evaluate import evaluate
+from ..pipeline.profile import depth_profile
+from ..speciation.samples import OCEAN_POSITION_COLUMNS, parse_column_header
 from ..species.database import default_database
 from .scenario import load_scenario
 
@@ -22,6 +24,8 @@ class Assessment:
     energetics: object
     results: pd.DataFrame
     mixing: pd.DataFrame = None
+    profile: pd.DataFrame = None       # energetics against depth in the body's ocean
+    profile_sample: str = ""
 
 
 def _progress(step, total, text, quiet):
@@ -79,5 +83,23 @@ def run_assessment(scenario_path, quiet=False):
                                    fractions=m.get("fractions"), temperatures_C=m.get("temperatures_C"),
                                    rule=m.get("temperature_rule", "enthalpy"),
                                    activity_model_name=scenario.activity_model, db=db)
+    profile, profile_sample = _ocean_profile(scenario, db, quiet)
     return Assessment(scenario, samples, ev.speciation, ev.energetics, pd.concat(frames, ignore_index=True),
-                      mixing)
+                      mixing, profile, profile_sample)
+
+
+def _ocean_profile(scenario, db, quiet):
+    """Energetics against depth of the first sample placed in the body's ocean (None without one)."""
+    if scenario.body is None:
+        return None, ""
+    placed = [c for c in scenario.samples.columns
+              if parse_column_header(c)[0].lower() in OCEAN_POSITION_COLUMNS]
+    rows = scenario.samples[scenario.samples[placed].notna().any(axis=1)] if placed else scenario.samples.iloc[:0]
+    if rows.empty:
+        return None, ""
+    sample = {k: v for k, v in rows.iloc[0].items() if not (isinstance(v, float) and pd.isna(v))
+              or parse_column_header(k)[0] == "T"}
+    points = int(scenario.raw["body"].get("profile_points", 21))
+    _progress("+", "", f"profile of {sample['sample']} over {points} depths of {scenario.body.name}", quiet)
+    return depth_profile(sample, scenario.body, scenario.reactions, scenario.activity_model, points, db), \
+        sample["sample"]

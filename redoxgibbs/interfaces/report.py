@@ -7,12 +7,12 @@ from pathlib import Path
 import matplotlib
 
 matplotlib.use("Agg")
-import matplotlib.pyplot as plt  # noqa: E402
-import numpy as np  # noqa: E402
+import matplotlib.pyplot as plt
+import numpy as np
 
-from ..species.ledger import verification_ledger  # noqa: E402
+from ..species.ledger import verification_ledger
 
-__all__ = ["write_outputs", "mixing_figure", "SCREENING_NOTE"]
+__all__ = ["SCREENING_NOTE", "mixing_figure", "profile_figure", "write_outputs"]
 
 SCREENING_NOTE = ("These are screening estimates of thermodynamic potential, not evidence of life "
                   "or of rates. Field sampling near hot fluids follows local rules and trained practice.")
@@ -127,6 +127,31 @@ def mixing_figure(frame, path=None):
     return buf.getvalue()
 
 
+def profile_figure(frame, sample, body, path=None):
+    """dGr per electron against depth in a body's ocean, one curve per reaction (depth downward).
+
+    Writes ``path`` when given; returns the figure's SVG text.
+    """
+    fig, ax = plt.subplots(figsize=(10, 5.5))
+    colours = plt.get_cmap("tab20").colors
+    for k, (name, group) in enumerate(frame.groupby("reaction", sort=False)):
+        ax.plot(group["dGr_kJ_per_mol_e"], group["depth_km"], marker="o", ms=3, label=name,
+                color=colours[k % len(colours)])
+    ax.axvline(0, color="k", lw=0.8)
+    ax.invert_yaxis()
+    ax.set_xlabel("dGr [kJ per mol e-]")
+    ax.set_ylabel("depth below the ice-ocean interface [km]")
+    ax.set_title(f"Energetics against depth in the ocean of {body}\n(fluid of {sample})", fontsize=10)
+    ax.legend(fontsize=7, loc="upper left", bbox_to_anchor=(1.02, 1.0))
+    fig.tight_layout()
+    if path is not None:
+        fig.savefig(path, dpi=110)
+    buf = io.StringIO()
+    fig.savefig(buf, format="svg")
+    plt.close(fig)
+    return buf.getvalue()
+
+
 def _rankings(first, out, units):
     valid = first[first["exergonic"]]
     by_site = valid.sort_values(["site", "sample", "energy_density_J_per_kg"], ascending=[True, True, False])
@@ -198,6 +223,11 @@ def write_outputs(assessment, out_dir):
         assessment.mixing.to_csv(out / "mixing.csv", index=False)
         svgs["mixing_path"] = mixing_figure(assessment.mixing, out / "mixing_path.png")
         (out / "mixing_path.svg").write_text(svgs["mixing_path"])
+    if assessment.profile is not None:
+        assessment.profile.to_csv(out / "depth_profile.csv", index=False)
+        svgs["depth_profile"] = profile_figure(assessment.profile, assessment.profile_sample,
+                                               assessment.scenario.body.name, out / "depth_profile.png")
+        (out / "depth_profile.svg").write_text(svgs["depth_profile"])
     sc = assessment.scenario
     summary = assessment.speciation.summary_frame()
     summary.insert(0, "site", sc.samples["site"].to_numpy())
@@ -230,7 +260,7 @@ def write_outputs(assessment, out_dir):
     shown = (f" (the first {MAX_FIGURE_SAMPLES} of {n_samples} samples; the tables and results.csv hold all)"
              if n_samples > MAX_FIGURE_SAMPLES else "")
     figure_html = "\n".join(f'<figure><div class="plot">{svg[svg.find("<svg"):]}</div>'
-                            f"<figcaption>{html.escape(k.replace('_', ' ') + (shown if k != 'mixing_path' else ''))}"
+                            f"<figcaption>{html.escape(k.replace('_', ' ') + (shown if k not in ('mixing_path', 'depth_profile') else ''))}"
                             "</figcaption></figure>"
                             for k, svg in svgs.items())
     page = f"""<!DOCTYPE html>

@@ -61,6 +61,8 @@ SUPPLY = {
                                "no loss)", **_POSITIVE),
     "heat_flow_W": Key("number", "heat carried out of the seafloor by the fluid [W] (hydrothermal)", **_POSITIVE),
     "temperature_rise_K": Key("number", "the fluid's temperature rise [K] (hydrothermal)", **_POSITIVE),
+    "recharge_T_C": Key("number", "temperature of the water entering the seafloor [degC] (hydrothermal)",
+                        within=(-20.0, 370.0)),
 }
 
 CELLS = {
