@@ -104,3 +104,21 @@ def test_ammonium_dissociation_against_bates_pinching_1949():
     T = np.array([0.0, 10.0, 25.0, 40.0, 50.0])
     expected = 2835.76 / (T + 273.15) - 0.6322 + 0.001225 * (T + 273.15)
     np.testing.assert_allclose(-_logK("NH4+ = NH3(aq) + H+", T), expected, atol=0.02)
+
+
+def test_phosphoric_acid_dissociation_against_bates_and_acree():
+    # Bates (1951) J. Res. Natl. Bur. Stand. 47, 127: pK1 = 799.31/T - 4.5535 + 0.013486 T; Bates &
+    # Acree (1943) J. Res. Natl. Bur. Stand. 30, 129: pK2 = 2073.0/T - 5.9884 + 0.020912 T (0-60 C;
+    # both from memory). 0.03 in pK1; 0.08 in pK2: H2PO4- is a formation species at constant
+    # enthalpy, and the ionization's heat capacity (about -220 J/mol/K) bends pK2 by 0.06 at 0 C
+    T = np.array([0.0, 25.0, 50.0]) + 273.15
+    pk1 = 799.31 / T - 4.5535 + 0.013486 * T
+    pk2 = 2073.0 / T - 5.9884 + 0.020912 * T
+    np.testing.assert_allclose(-_logK("H3PO4(aq) = H2PO4- + H+", T - 273.15), pk1, atol=0.03)
+    np.testing.assert_allclose(-_logK("H2PO4- = HPO4^2- + H+", T - 273.15), pk2, atol=0.08)
+
+
+def test_third_dissociation_of_phosphoric_acid_at_25C():
+    # CRC Handbook, "Dissociation constants of inorganic acids and bases": pK3 = 12.32 (recent
+    # editions) to 12.375 (older ones; both from memory): 0.06
+    assert -float(_logK("HPO4^2- = PO4^3- + H+", [25.0])[0]) == pytest.approx(12.35, abs=0.06)

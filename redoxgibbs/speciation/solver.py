@@ -350,7 +350,7 @@ def _presence(system, totals, gas_masters):
 
 #: Zero levels of protons of the total alkalinity (Dickson 1981, Deep-Sea Res. 28A, 609): acids
 #: with pK >= 4.5 count from their acid form; other components count from their free ion
-ALKALINITY_ZERO_LEVELS = ("CO2(aq)", "B(OH)3(aq)", "H2S(aq)", "NH4+", "SiO2(aq)", "CH3COOH(aq)")
+ALKALINITY_ZERO_LEVELS = ("CO2(aq)", "B(OH)3(aq)", "H2S(aq)", "NH4+", "SiO2(aq)", "CH3COOH(aq)", "H2PO4-")
 
 
 def _zero_level_charges(system, db):
