@@ -17,6 +17,7 @@ from ..flags import join_flags
 from ..species.database import R_J_MOL_K, default_database
 from ..species.properties import standard_properties
 from ..water.iapws95 import water_state
+from .growth import biomass_yield_Cmol_per_mol_donor, growth_models
 
 __all__ = ["InsituEnergetics", "insitu_energetics", "gibbs_energy_kernel", "energy_density_kernel",
            "DEFAULT_MINIMUM_ENERGY_KJ"]
@@ -116,6 +117,11 @@ class InsituEnergetics:
         for species in per_species:
             frame.insert(frame.columns.get_loc("dGr_kJ_per_mol_e") + 1, f"dGr_kJ_per_mol_{species}",
                          self.per_species(species).ravel())
+        growth = growth_models(self.reactions)
+        frame["electron_donor"] = til([g[0] for g in growth])
+        frame["growth_model"] = til([g[1] for g in growth])
+        frame["biomass_yield_Cmol_per_mol_donor"] = biomass_yield_Cmol_per_mol_donor(
+            self.dGr, np.array([g[3] for g in growth]), np.array([g[2] for g in growth])).ravel()
         return frame
 
     def per_species(self, species):

@@ -6,7 +6,6 @@ from dataclasses import dataclass
 import numpy as np
 import pandas as pd
 
-from ..energetics.power import power_per_cell_W
 from ..pipeline.evaluate import evaluate
 from ..pipeline.profile import depth_profile
 from ..speciation.samples import OCEAN_POSITION_COLUMNS, parse_column_header
@@ -38,21 +37,20 @@ def _power_frames(scenario, ev):
     models in order): the evaluation's rows of its samples, with power and that site's cells."""
     base = ev.energetics.to_frame(scenario.per_species)
     base.insert(0, "site", np.repeat(scenario.site_of_samples(), len(scenario.reactions)))
-    units, r = scenario.power_units, len(scenario.reactions)
+    r = len(scenario.reactions)
     index = {x.describe(): k for k, x in enumerate(ev.supplies)}
     frames = []
     for site in scenario.sites:
         rows = site.rows
-        cells_W = power_per_cell_W(site.cells, ev.speciation.T_K[rows])
         for supply in site.supplies or [None]:
             frame = base.iloc[rows.start * r:rows.stop * r].copy()
             if supply is None:
                 frame["supply"] = "none given"
-                for col in (units.volume_column, units.mass_column, "cells_per_m3_low", "cells_per_m3_high"):
+                for col in ev.power_column_names():
                     frame[col] = np.nan
             else:
                 frame["supply"] = supply.describe()
-                for col, values in ev.power_columns(index[supply.describe()], rows, cells_W).items():
+                for col, values in ev.power_columns(index[supply.describe()], rows, site.cells).items():
                     frame[col] = values
             frame["cell_model"] = site.cells.describe()
             frames.append(frame)

@@ -11,11 +11,19 @@ from dataclasses import dataclass, field
 import numpy as np
 import pandas as pd
 
+from ..constants import SECONDS_PER_YEAR
+from ..energetics.growth import growth_models
 from ..energetics.insitu import DEFAULT_MINIMUM_ENERGY_KJ, insitu_energetics
-from ..energetics.power import CellRequirement, PowerUnits, power_per_cell_W, power_per_volume
-from ..species.database import default_database
+from ..energetics.power import (
+    CARBON_G_PER_MOL,
+    CellRequirement,
+    PowerUnits,
+    power_per_cell_W,
+    power_per_volume,
+)
 from ..speciation.samples import SampleSet, read_samples
 from ..speciation.solver import speciate
+from ..species.database import default_database
 from ..water.iapws95 import water_state
 
 __all__ = ["Evaluation", "SharedWater", "evaluate"]
@@ -56,17 +64,31 @@ class Evaluation:
     def failed(self):
         return self.speciation.failure != ""
 
-    def power_columns(self, k, rows=slice(None), cells_W=None):
-        """Power and cell columns of supply ``k`` for the samples ``rows`` (flattened sample x
-        reaction), named in the chosen units; ``cells_W`` = (low, high) per-cell demand of those
-        samples [W] when another cell model applies to them."""
+    def power_column_names(self):
+        """The names of the columns :meth:`power_columns` gives."""
+        return [self.units.volume_column, self.units.mass_column, "cells_per_m3_low", "cells_per_m3_high",
+                "biomass_Cmol_per_m3_yr", "new_cells_per_m3_yr_low", "new_cells_per_m3_yr_high"]
+
+    def power_columns(self, k, rows=slice(None), cells=None):
+        """Power, cell and growth columns of supply ``k`` for the samples ``rows`` (flattened sample
+        x reaction), named in the chosen units; ``cells`` a CellRequirement when another cell model
+        than the evaluation's applies to them. Growth: power spent on growth alone makes power / D_s
+        C-mol of biomass (:mod:`~redoxgibbs.energetics.growth`), in cells through the cell model's
+        carbon per cell (a low-high range)."""
+        cells = self.cells if cells is None else cells
         P = self.power_W_per_m3[k][rows]
         rho = self.energetics.density_kg_L[rows, None]
-        low, high = cells_W if cells_W is not None else (self.cells_W_low[rows], self.cells_W_high[rows])
+        low, high = power_per_cell_W(cells, self.speciation.T_K[rows])
+        D = np.array([g[2] for g in growth_models(self.energetics.reactions)])     # kJ per C-mol
+        biomass = P / (D * 1e3) * SECONDS_PER_YEAR                              # C-mol per m3 per yr
+        carbon_low, carbon_high = cells.cell_carbon_g
         return {self.units.volume_column: (P * self.units.volume_factor).ravel(),
                 self.units.mass_column: (P / (rho * 1000.0) * self.units.mass_factor).ravel(),
                 "cells_per_m3_low": (P / high[:, None]).ravel(),
-                "cells_per_m3_high": (P / low[:, None]).ravel()}
+                "cells_per_m3_high": (P / low[:, None]).ravel(),
+                "biomass_Cmol_per_m3_yr": biomass.ravel(),
+                "new_cells_per_m3_yr_low": (biomass * CARBON_G_PER_MOL / carbon_high).ravel(),
+                "new_cells_per_m3_yr_high": (biomass * CARBON_G_PER_MOL / carbon_low).ravel()}
 
     def to_frame(self, per_species=()):
         """Tidy table: one row per sample x reaction x supply model (x reaction when none)."""

@@ -35,6 +35,7 @@ __all__ = [
     "psat_convention_bar",
     "T_CRITICAL_K",
     "P_CRITICAL_BAR",
+    "saturation_temperature_K",
     "M_WATER_KG_PER_MOL",
     "SUPERCOOLED_LIMIT_K",
     "liquid_density_kg_m3",
@@ -361,6 +362,20 @@ def saturation_pressure_bar(T_K):
                 f"P='psat': the saturation pressure could not be found at {t - 273.15:.6g} degC, within about "
                 "1 K of the critical point (373.946 degC); give a pressure") from None
     return psat[inverse].reshape(T.shape)
+
+
+def saturation_temperature_K(P_bar):
+    """Boiling temperature [K] at pressure P [bar]: the Wagner & Pruss (2002) auxiliary saturation
+    equation (to about 0.03 % in pressure) inverted by bisection over all states at once; NaN at
+    and above the critical pressure and below the triple-point pressure."""
+    P = np.asarray(P_bar, dtype=float) * 1e5
+    lo, hi = np.full(P.shape, T_TRIPLE_K), np.full(P.shape, T_CRITICAL_K)
+    for _ in range(48):            # 374 K of bracket halved 48 times: below 1e-12 K
+        mid = 0.5 * (lo + hi)
+        below = _saturation_pressure_auxiliary_Pa(mid) < P
+        lo, hi = np.where(below, mid, lo), np.where(below, hi, mid)
+    inside = (P < P_CRITICAL_BAR * 1e5) & (P >= _saturation_pressure_auxiliary_Pa(np.array(T_TRIPLE_K)))
+    return np.where(inside, 0.5 * (lo + hi), np.nan)
 
 
 def psat_convention_bar(T_K):
