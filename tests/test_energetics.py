@@ -218,6 +218,11 @@ def test_assess_demo_writes_everything(tmp_path):
     assert {"power_W_per_m3", "cells_per_m3_low", "cells_per_m3_high", "site"} <= set(results.columns)
     page = (tmp_path / "report.html").read_text()
     assert "screening estimates" in page and "local rules" in page
+    for name in ("habitability.csv", "thresholds.csv", "feasibility_map.nc", "depth_profile.csv"):
+        assert (tmp_path / name).exists(), name
+    for section in ("Habitability envelope", "Thresholds", "not evidence of life"):
+        assert section in page and section in (tmp_path / "report.md").read_text(), section
+    assert {"biomass_Cmol_per_m3_yr", "biomass_yield_Cmol_per_mol_donor", "growth_model"} <= set(results.columns)
 
 
 CHROMIUM = shutil.which("chromium") or shutil.which("chromium-browser")

@@ -24,6 +24,7 @@ from dataclasses import dataclass, fields
 import numpy as np
 import pandas as pd
 
+from ..energetics.power import power_per_cell_W
 from ..errors import InputError
 from ..water.iapws95 import saturation_temperature_K
 
@@ -95,13 +96,13 @@ def _verdict(ok, known):
 
 
 def habitability_envelope(evaluation, limits=Limits(), minimum_energy_kJ=None, supply_index=0,
-                          cells_W=None, rows=slice(None), db=None):
+                          cells=None, rows=slice(None), db=None):
     """The envelope of the samples ``rows`` of an :class:`~redoxgibbs.pipeline.evaluate.Evaluation`:
     one row per sample x criterion (value, unit, limit, verdict, source).
 
-    Power is that of the supply model ``supply_index`` (none given: the power criterion is not
-    assessed), against ``cells_W`` = (low, high) per-cell demand [W] of those samples (default: the
-    evaluation's cell model).
+    Power is that of the supply model ``supply_index`` (None, or no supply given: the power
+    criterion is not assessed), against the per-cell demand of ``cells`` (a CellRequirement;
+    default: the evaluation's cell model).
     """
     from ..species.database import default_database
 
@@ -147,7 +148,7 @@ def habitability_envelope(evaluation, limits=Limits(), minimum_energy_kJ=None, s
     known = np.isfinite(best)
     add("energy: best reaction's -dGr", np.where(known, best, np.nan), "kJ/mol", f">= {minimum:g}",
         _verdict(best >= minimum, known), LIMIT_SOURCES["minimum_energy"])
-    _power_criterion(add, evaluation, idx, limits, supply_index, cells_W)
+    _power_criterion(add, evaluation, idx, limits, supply_index, evaluation.cells if cells is None else cells)
     for name, element, exclude, key in (
             ("nutrient: fixed nitrogen", "N", ("N2(aq)", "N2O(aq)"), "fixed_nitrogen_umol_per_kg_min"),
             ("nutrient: phosphate", "P", (), "phosphate_umol_per_kg_min"),
@@ -161,15 +162,15 @@ def habitability_envelope(evaluation, limits=Limits(), minimum_energy_kJ=None, s
     return frame.sort_values("sample", key=lambda c: c.map(order), kind="stable").reset_index(drop=True)
 
 
-def _power_criterion(add, evaluation, idx, limits, supply_index, cells_W):
+def _power_criterion(add, evaluation, idx, limits, supply_index, cells):
     """The best reaction's power against the maintenance power of limits.cells_per_cm3_min cells:
     pass when even the high per-cell demand is met, fail when not even the low one is."""
-    if not evaluation.supplies:
+    if not evaluation.supplies or supply_index is None:
         add("energy: power for cells", np.nan, "cells/cm3", f">= {limits.cells_per_cm3_min:g}", "not assessed",
             "no supply model given")
         return
     P = evaluation.power_W_per_m3[supply_index][idx]
-    low_W, high_W = cells_W if cells_W is not None else (evaluation.cells_W_low[idx], evaluation.cells_W_high[idx])
+    low_W, high_W = power_per_cell_W(cells, evaluation.speciation.T_K[idx])
     finite = np.isfinite(P).any(axis=1) if P.size else np.zeros(idx.size, bool)
     best = np.where(finite, np.nanmax(np.where(np.isfinite(P), P, -np.inf), axis=1), np.nan)
     cells_low, cells_high = best / high_W / 1e6, best / low_W / 1e6      # per cm3
@@ -178,4 +179,4 @@ def _power_criterion(add, evaluation, idx, limits, supply_index, cells_W):
                                                          np.where(cells_high < need, "fail", "uncertain")))
     supply = evaluation.supplies[supply_index].describe()
     add("energy: power for cells", cells_high, "cells/cm3 (high end)", f">= {need:g}", verdict,
-        f"{LIMIT_SOURCES['cells_per_cm3_min']}; power of {supply}; {evaluation.cells.describe()}")
+        f"{LIMIT_SOURCES['cells_per_cm3_min']}; power of {supply}; {cells.describe()}")

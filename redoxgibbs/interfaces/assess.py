@@ -6,8 +6,12 @@ from dataclasses import dataclass
 import numpy as np
 import pandas as pd
 
+from ..energetics.catalog import resolve_reactions
+from ..errors import InputError
+from ..habitability.envelope import habitability_envelope
 from ..pipeline.evaluate import evaluate
 from ..pipeline.profile import depth_profile
+from ..pipeline.thresholds import Target, feasibility_map, solve_input
 from ..speciation.samples import OCEAN_POSITION_COLUMNS, parse_column_header
 from ..species.database import default_database
 from .scenario import load_scenario
@@ -25,6 +29,9 @@ class Assessment:
     mixing: pd.DataFrame = None
     profile: pd.DataFrame = None       # energetics against depth in the body's ocean
     profile_sample: str = ""
+    envelope: pd.DataFrame = None      # the habitability envelope, sample x criterion
+    thresholds: pd.DataFrame = None    # the [thresholds] section solved per sample
+    feasibility: object = None         # its map (an xarray Dataset), when it asks for one
 
 
 def _progress(step, total, text, quiet):
@@ -82,8 +89,58 @@ def run_assessment(scenario_path, quiet=False):
                                    rule=m.get("temperature_rule", "enthalpy"),
                                    activity_model_name=scenario.activity_model, db=db)
     profile, profile_sample = _ocean_profile(scenario, db, quiet)
+    thresholds, feasibility = scenario_thresholds(scenario, db, quiet) if "thresholds" in scenario.raw else (None, None)
     return Assessment(scenario, samples, ev.speciation, ev.energetics, pd.concat(frames, ignore_index=True),
-                      mixing, profile, profile_sample)
+                      mixing, profile, profile_sample, _envelope(scenario, ev, db), thresholds, feasibility)
+
+
+def _envelope(scenario, ev, db):
+    """The habitability envelope of every sample, each site with its first supply and cell model."""
+    index = {x.describe(): k for k, x in enumerate(ev.supplies)}
+    parts = []
+    for site in scenario.sites:
+        k = index[site.supplies[0].describe()] if site.supplies else None
+        part = habitability_envelope(ev, scenario.limits, scenario.minimum_energy_kJ, k, site.cells, site.rows, db)
+        parts.append(part.assign(site=site.name))
+    frame = pd.concat(parts, ignore_index=True)
+    frame.insert(0, "site", frame.pop("site"))
+    return frame
+
+
+def scenario_thresholds(scenario, db, quiet=True):
+    """The [thresholds] section: (table per sample, or per map point; the map's xarray Dataset or None)."""
+    spec = scenario.raw["thresholds"]
+    reaction = resolve_reactions([spec["reaction"]], db)[0]
+    value = spec.get("value", scenario.minimum_energy_kJ if spec["target"] == "minimum_energy" else None)
+    if value is None:
+        raise InputError(f"scenario: thresholds.value is needed for the target {spec['target']!r}")
+    target, column, bracket = Target(spec["target"], float(value)), spec["input"], tuple(spec["bracket"])
+    same = parse_column_header(column)[0]
+
+    def own(row):     # the fluid without its own cell of the solved input (in whatever unit)
+        return {k: v for k, v in row.items() if parse_column_header(k)[0] != same}
+
+    def supply_of(site):
+        return site.supplies[0] if site.supplies else None
+
+    if "map" in spec:
+        site = scenario.site_of(spec["sample"])
+        axes = {c: [float(x) for x in v] for c, v in spec["map"].items()}
+        _progress("+", "", f"feasibility map of {column} over {' x '.join(axes)} "
+                           f"({np.prod([len(v) for v in axes.values()])} points)", quiet)
+        ds = feasibility_map(own(scenario.sample_row(spec["sample"])), reaction, column, target, bracket, axes,
+                             scenario.activity_model, supply_of(site), site.cells, scenario.body, db)
+        return ds.to_dataframe().reset_index().rename(columns={"threshold": column}), ds
+    _progress("+", "", f"thresholds of {column} for {len(scenario.sample_set)} samples", quiet)
+    parts = []
+    for site in scenario.sites:
+        frame = pd.DataFrame([own(scenario.sample_row(n)) for n in scenario.sample_set.names[site.rows]])
+        part = solve_input(frame, reaction, column, target, bracket, scenario.activity_model, supply_of(site),
+                           site.cells, scenario.body, db)
+        parts.append(part.assign(site=site.name))
+    table = pd.concat(parts, ignore_index=True)
+    table.insert(0, "site", table.pop("site"))
+    return table, None
 
 
 def _ocean_profile(scenario, db, quiet):
@@ -95,8 +152,7 @@ def _ocean_profile(scenario, db, quiet):
     rows = scenario.samples[scenario.samples[placed].notna().any(axis=1)] if placed else scenario.samples.iloc[:0]
     if rows.empty:
         return None, ""
-    sample = {k: v for k, v in rows.iloc[0].items() if not (isinstance(v, float) and pd.isna(v))
-              or parse_column_header(k)[0] == "T"}
+    sample = scenario.sample_row(rows.iloc[0]["sample"])
     points = int(scenario.raw["body"].get("profile_points", 21))
     _progress("+", "", f"profile of {sample['sample']} over {points} depths of {scenario.body.name}", quiet)
     return depth_profile(sample, scenario.body, scenario.reactions, scenario.activity_model, points, db), \

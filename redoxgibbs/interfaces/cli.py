@@ -4,17 +4,23 @@ import argparse
 import itertools
 import os
 import sys
+from pathlib import Path
 
 import numpy as np
 
 from ..activities.models import MODELS
-from ..energetics.catalog import catalog, couples_present, enumerate_reactions, resolve_reactions
+from ..energetics.catalog import (
+    catalog,
+    couples_present,
+    enumerate_reactions,
+    resolve_reactions,
+)
 from ..energetics.insitu import DEFAULT_MINIMUM_ENERGY_KJ
-from ..errors import RedoxGibbsError
+from ..errors import InputError, RedoxGibbsError
 from ..reactions.reaction import Reaction, reaction_properties
-from ..species.database import default_database
 from ..speciation.samples import BELOW_DETECTION_POLICIES, read_samples
 from ..speciation.solver import speciate, species_in_samples
+from ..species.database import default_database
 from .report import SCREENING_NOTE
 
 __all__ = ["main"]
@@ -209,6 +215,34 @@ def _sweep(args):
     return 0
 
 
+def _thresholds(args):
+    from .assess import scenario_thresholds
+    from .report import feasibility_figure
+    from .scenario import load_scenario
+
+    scenario = load_scenario(args.scenario)
+    if "thresholds" not in scenario.raw:
+        raise InputError(f"scenario {args.scenario}: no [thresholds] section (see 'redoxgibbs scenario-keys')")
+    table, ds = scenario_thresholds(scenario, default_database(), quiet=args.quiet)
+    if args.out:
+        out = Path(args.out)
+        out.mkdir(parents=True, exist_ok=True)
+        table.to_csv(out / "thresholds.csv", index=False)
+        if ds is not None:
+            ds.to_netcdf(out / "feasibility_map.nc", engine="scipy")
+            feasibility_figure(ds, out / "feasibility_map.png")
+        print(f"thresholds.csv{' , feasibility_map.nc and feasibility_map.png' if ds is not None else ''} in {out}",
+              file=sys.stderr)
+    column = scenario.raw["thresholds"]["input"]
+    shown = [c for c in ("site", "sample", *(ds.threshold.dims if ds is not None else ()), column, "status")
+             if c in table.columns]
+    _write_frame(table, args.format, shown)
+    unsolved = int((table["status"] != "solved").sum())
+    if unsolved:
+        print(f"redoxgibbs: {unsolved} of {len(table)} have no solution (see the status column)", file=sys.stderr)
+    return 0
+
+
 def _parser():
     parser = argparse.ArgumentParser(
         prog="redoxgibbs",
@@ -288,6 +322,13 @@ def _parser():
     swp.add_argument("--fresh", action="store_true",
                      help="empty the output folder first (it must otherwise hold this same sweep)")
     swp.set_defaults(run=_sweep)
+    thr = sub.add_parser("thresholds", help="solve a scenario's [thresholds]: the input at which a reaction "
+                                            "reaches a target, per sample or over a feasibility map")
+    thr.add_argument("scenario")
+    thr.add_argument("--out", help="folder for thresholds.csv (and feasibility_map.nc and .png)")
+    thr.add_argument("--format", choices=("table", "csv"), default="table")
+    thr.add_argument("--quiet", action="store_true")
+    thr.set_defaults(run=_thresholds)
     demo = sub.add_parser("demo", help="run the bundled demo scenario (invented sites)")
     demo.add_argument("--out", default="redoxgibbs-demo", help="output folder (default %(default)s)")
     demo.add_argument("--quiet", action="store_true")

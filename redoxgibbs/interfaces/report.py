@@ -9,6 +9,7 @@ import matplotlib
 matplotlib.use("Agg")
 import matplotlib.pyplot as plt
 import numpy as np
+import pandas as pd
 
 from ..species.ledger import verification_ledger
 
@@ -152,6 +153,32 @@ def profile_figure(frame, sample, body, path=None):
     return buf.getvalue()
 
 
+def feasibility_figure(ds, path=None):
+    """Contours of the solved input (log10 for amounts) over the map's two axes; points without a
+    solution are left blank and said so in the title. Returns the figure's SVG text."""
+    (x, y), values = list(ds["threshold"].dims), ds["threshold"].values
+    positive = np.isfinite(values) & (values > 0)
+    log = bool(ds.attrs["log_scale"]) and positive.any()
+    z = np.where(positive, np.log10(np.where(positive, values, 1.0)), np.nan) if log else values
+    fig, ax = plt.subplots(figsize=(8, 5.5))
+    if np.isfinite(z).sum() >= 4 and min(z.shape) >= 2:
+        cs = ax.contourf(ds[x].values, ds[y].values, z.T, levels=12, cmap="viridis")
+        fig.colorbar(cs, ax=ax, label=("log10 " if log else "") + ds.attrs["input"])
+    missing = int((~np.isfinite(values)).sum())
+    ax.set_xlabel(ds.attrs["axes"].split("; ")[0])
+    ax.set_ylabel(ds.attrs["axes"].split("; ")[1])
+    ax.set_title(f"{ds.attrs['input']} at which {ds.attrs['reaction']} reaches {ds.attrs['target']}"
+                 + (f"\n({missing} points without a solution in {ds.attrs['bracket']}: blank)" if missing else ""),
+                 fontsize=9)
+    fig.tight_layout()
+    if path is not None:
+        fig.savefig(path, dpi=110)
+    buf = io.StringIO()
+    fig.savefig(buf, format="svg")
+    plt.close(fig)
+    return buf.getvalue()
+
+
 def _rankings(first, out, units):
     valid = first[first["exergonic"]]
     by_site = valid.sort_values(["site", "sample", "energy_density_J_per_kg"], ascending=[True, True, False])
@@ -198,6 +225,32 @@ def _table_md(frame, max_rows=MAX_TABLE_ROWS, **kw):
     return frame.head(max_rows).to_markdown(index=False, **kw) + (f"\n\n{note}" if note else "")
 
 
+ENVELOPE_NOTE = ("Screening criteria, not evidence of life: each sample's value against a published limit "
+                 "(habitability.csv gives every value, limit and source; a criterion without data is 'not "
+                 "assessed', never 'pass'). Nutrient thresholds are this project's screening defaults.")
+
+
+def _envelope_summary(envelope):
+    """One row per sample, one column per criterion, the verdicts (the values are in habitability.csv)."""
+    if envelope is None:
+        return pd.DataFrame()
+    wide = envelope.pivot_table(index=["site", "sample"], columns="criterion", values="verdict", aggfunc="first",
+                                sort=False)
+    return wide[list(dict.fromkeys(envelope["criterion"]))].reset_index()
+
+
+def _thresholds_html(assessment):
+    if assessment.thresholds is None:
+        return ""
+    spec = assessment.scenario.raw["thresholds"]
+    what = "over the feasibility map's grid (figure below; feasibility_map.nc)" if assessment.feasibility is not None \
+        else "per sample"
+    return (f"<h2>Thresholds</h2><p>The value of {html.escape(spec['input'])} at which "
+            f"{html.escape(spec['reaction'])} reaches the target, {what}; 'no solution' where the target is not "
+            f"crossed within [{spec['bracket'][0]:g}, {spec['bracket'][1]:g}].</p>"
+            + _table_html(assessment.thresholds))
+
+
 def _solid_reactions(reactions):
     """'reaction (solid, ...)' for each reaction that takes a solid as reactant or product."""
     items = []
@@ -228,6 +281,15 @@ def write_outputs(assessment, out_dir):
         svgs["depth_profile"] = profile_figure(assessment.profile, assessment.profile_sample,
                                                assessment.scenario.body.name, out / "depth_profile.png")
         (out / "depth_profile.svg").write_text(svgs["depth_profile"])
+    if assessment.envelope is not None:
+        assessment.envelope.to_csv(out / "habitability.csv", index=False)
+    if assessment.thresholds is not None:
+        assessment.thresholds.to_csv(out / "thresholds.csv", index=False)
+    if assessment.feasibility is not None:
+        assessment.feasibility.to_netcdf(out / "feasibility_map.nc", engine="scipy")
+        svgs["feasibility_map"] = feasibility_figure(assessment.feasibility, out / "feasibility_map.png")
+        (out / "feasibility_map.svg").write_text(svgs["feasibility_map"])
+    envelope = _envelope_summary(assessment.envelope)
     sc = assessment.scenario
     summary = assessment.speciation.summary_frame()
     summary.insert(0, "site", sc.samples["site"].to_numpy())
@@ -260,7 +322,7 @@ def write_outputs(assessment, out_dir):
     shown = (f" (the first {MAX_FIGURE_SAMPLES} of {n_samples} samples; the tables and results.csv hold all)"
              if n_samples > MAX_FIGURE_SAMPLES else "")
     figure_html = "\n".join(f'<figure><div class="plot">{svg[svg.find("<svg"):]}</div>'
-                            f"<figcaption>{html.escape(k.replace('_', ' ') + (shown if k not in ('mixing_path', 'depth_profile') else ''))}"
+                            f"<figcaption>{html.escape(k.replace('_', ' ') + (shown if k not in ('mixing_path', 'depth_profile', 'feasibility_map') else ''))}"
                             "</figcaption></figure>"
                             for k, svg in svgs.items())
     page = f"""<!DOCTYPE html>
@@ -283,6 +345,10 @@ figure {{ margin: 1.5em 0; }} .plot svg {{ max-width: 100%; height: auto; }}
 {_table_html(summary)}
 <h2>Most energy per kilogram of fluid, per sample</h2>
 {_table_html(ranking.groupby(['site', 'sample']).head(5))}
+<h2>Habitability envelope</h2>
+<p class="caution">{html.escape(ENVELOPE_NOTE)}</p>
+{_table_html(envelope)}
+{_thresholds_html(assessment)}
 <h2>Figures</h2>
 {figure_html}
 <h2>Validity flags</h2>
@@ -302,7 +368,10 @@ checked against outside references in the project's tests; see DEVELOPERS.md for
     md += ["", "## Speciation", "", _table_md(summary, floatfmt=".4g")]
     md += ["", "## Most energy per kilogram of fluid, per sample", "",
            _table_md(ranking.groupby(["site", "sample"]).head(5), floatfmt=".4g"), "",
-           "## Figures", ""]
+           "## Habitability envelope", "", f"> {ENVELOPE_NOTE}", "", _table_md(envelope), ""]
+    if assessment.thresholds is not None:
+        md += ["## Thresholds", "", _table_md(assessment.thresholds, floatfmt=".4g"), ""]
+    md += ["## Figures", ""]
     md += [f"![{k}]({k}.png)" for k in svgs]
     md += ["", "## Validity flags", "", _table_md(flagged[flag_columns], floatfmt=".4g")]
     md += ["", "## Data sources and verification ledger", "", _table_md(sources, max_rows=500), ""]

@@ -16,13 +16,25 @@ import numpy as np
 import pandas as pd
 
 from ..bodies.body import Body
-from ..energetics.catalog import catalog, couples_present, enumerate_reactions, resolve_reactions
+from ..energetics.catalog import (
+    catalog,
+    couples_present,
+    enumerate_reactions,
+    resolve_reactions,
+)
 from ..energetics.insitu import DEFAULT_MINIMUM_ENERGY_KJ
 from ..energetics.power import CellRequirement, PowerUnits, Supply
 from ..errors import InputError
-from ..species.database import default_database
-from ..speciation.samples import SampleSet, merge_sample_sets, read_sample_table, read_samples
+from ..habitability.envelope import Limits
+from ..speciation.samples import (
+    SampleSet,
+    merge_sample_sets,
+    parse_column_header,
+    read_sample_table,
+    read_samples,
+)
 from ..speciation.solver import species_in_samples
+from ..species.database import default_database
 from .schema import check_scenario
 
 if sys.version_info >= (3, 11):
@@ -60,6 +72,20 @@ class Scenario:
     mixing: dict = None
     raw: dict = None
     body: Body = None
+    limits: Limits = field(default_factory=Limits)
+
+    def site_of(self, sample):
+        """The Site a sample (by name) belongs to."""
+        where = dict(zip(self.sample_set.names, self.site_of_samples()))[str(sample)]
+        return next(x for x in self.sites if x.name == where)
+
+    def sample_row(self, name):
+        """A sample's row as written (a dict of its non-blank cells; a blank temperature stays)."""
+        rows = self.samples[self.samples["sample"].astype(str) == str(name)]
+        if rows.empty:
+            raise InputError(f"scenario: sample {name!r} is not a sample name")
+        return {k: v for k, v in rows.iloc[0].items()
+                if k != "site" and (not (isinstance(v, float) and pd.isna(v)) or parse_column_header(k)[0] == "T")}
 
     def site_of_samples(self):
         """The site name of every sample, in sample order."""
@@ -175,7 +201,7 @@ def load_scenario(path):
                     cells=cells, power_units=power_units,
                     per_species=[db.resolve(x) for x in reaction_spec.get("per_species", [])],
                     minimum_energy_kJ=float(data.get("minimum_energy_kJ_per_mol", DEFAULT_MINIMUM_ENERGY_KJ)),
-                    source=path, mixing=mixing, raw=data, body=body)
+                    source=path, mixing=mixing, raw=data, body=body, limits=Limits(**data.get("habitability", {})))
 
 
 def _distribution(column, spec):
@@ -200,11 +226,7 @@ def sweep_spec(scenario):
     section = scenario.raw.get("uncertainty") or scenario.raw.get("sweep")
     if not section:
         raise InputError("scenario: no [uncertainty] or [sweep] section to run")
-    def row(name):
-        rows = scenario.samples[scenario.samples["sample"].astype(str) == str(name)]
-        if rows.empty:
-            raise InputError(f"scenario: sweep sample {name!r} is not a sample name")
-        return {k: v for k, v in rows.iloc[0].items() if k != "site" and not (isinstance(v, float) and pd.isna(v))}
+    row = scenario.sample_row
 
     mixing = section.get("mixing")
     if mixing:
@@ -214,8 +236,7 @@ def sweep_spec(scenario):
         site = None
     else:
         base = row(section.get("sample"))
-        where = dict(zip(scenario.sample_set.names, scenario.site_of_samples()))[str(section["sample"])]
-        site = next(x for x in scenario.sites if x.name == where)
+        site = scenario.site_of(section["sample"])
     inputs = {c: _distribution(c, d) for c, d in section.get("inputs", {}).items()}
     if not inputs:
         raise InputError("scenario: the sweep section names no inputs")

@@ -126,8 +126,38 @@ BODY = {
                           within=(2, 500)),
 }
 
+HABITABILITY = {
+    "T_max_C": Key("number", "highest temperature of growth [degC] (default 122, Takai et al. 2008)"),
+    "T_min_C": Key("number", "lowest temperature of measured activity [degC] (default -20, Rivkina et al. 2000)"),
+    "water_activity_min": Key("number", "lowest water activity of growth (default 0.585, Stevenson et al. 2015)",
+                              within=(0.0, 1.0)),
+    "pH_min": Key("number", "lowest pH of growth (default 0)", within=(-2.0, 16.0)),
+    "pH_max": Key("number", "highest pH of growth (default 12.5)", within=(-2.0, 16.0)),
+    "cells_per_cm3_min": Key("number", "cell density the best reaction's power must keep alive [cells/cm3] "
+                             "(default 1000)", **_POSITIVE),
+    "fixed_nitrogen_umol_per_kg_min": Key("number", "fixed nitrogen needed [umol/kg] (default 1)", non_negative=True),
+    "phosphate_umol_per_kg_min": Key("number", "phosphate needed [umol/kg] (default 0.01)", non_negative=True),
+    "sulfur_umol_per_kg_min": Key("number", "sulfur needed [umol/kg] (default 1)", non_negative=True),
+    "iron_umol_per_kg_min": Key("number", "iron needed [umol/kg] (default 0.001)", non_negative=True),
+}
+
+THRESHOLDS = {
+    "reaction": Key("str", "the reaction (catalog name or reaction string)", required=True),
+    "input": Key("str", "the sample column solved for, e.g. \"H2(aq) [nmol/kg]\"", required=True),
+    "target": Key("str", "what the reaction must reach", required=True,
+                  choices=("minimum_energy", "energy_density", "cells")),
+    "value": Key("number", "the target: kJ/mol (minimum_energy; default the scenario's minimum energy), "
+                           "J/kg (energy_density) or cells/cm3 (cells)", **_POSITIVE),
+    "bracket": Key("range", "where to search, [low, high] in the input's units", required=True),
+    "sample": Key("str", "the base sample of the map (without a map: every sample is solved)"),
+    "map": Key("inputs", "two sample columns to grid values, e.g. {\"T [degC]\" = [...], pH = [...]}"),
+}
+
 SCENARIO = {
     "title": Key("str", "report title"),
+    "habitability": Key("table", "limits of the habitability envelope (defaults: published values)", keys=HABITABILITY),
+    "thresholds": Key("table", "feasibility asked backwards: the input at which a reaction reaches a target",
+                      keys=THRESHOLDS),
     "body": Key("table", "an icy body: its ocean column turns 'depth [km]' (below the ice-ocean interface) or "
                          "'above seafloor [km]' sample columns into pressures", keys=BODY),
     "activity_model": Key("str", "activity model", choices=tuple(MODELS)),
@@ -282,6 +312,13 @@ def check_scenario(data):
     mixing = data.get("mixing")
     if mixing is not None and ("temperatures_C" in mixing) == ("fractions" in mixing):
         _fail("mixing", "give either temperatures_C or fractions")
+    thresholds = data.get("thresholds")
+    if thresholds is not None and "map" in thresholds:
+        grid = thresholds["map"]
+        if len(grid) != 2 or not all(isinstance(v, list) for v in grid.values()):
+            _fail("thresholds.map", f"a map takes exactly two columns, each a list of values; got {grid!r}")
+        if "sample" not in thresholds:
+            _fail("thresholds", "a map needs the base sample ('sample')")
 
 
 def schema_reference(keys=SCENARIO, prefix=""):

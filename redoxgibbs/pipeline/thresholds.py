@@ -156,4 +156,5 @@ def feasibility_map(base, reaction, column, target, bracket, axes, activity_mode
          "status": ((dims[0], dims[1]), solved["status"].to_numpy().reshape(X.shape).astype(str))},
         coords={dims[0]: np.asarray(vx, float), dims[1]: np.asarray(vy, float)},
         attrs={"input": column, "reaction": reaction.name, "target": target.describe(),
-               "axes": f"{cx}; {cy}", "bracket": f"[{bracket[0]:g}, {bracket[1]:g}]"})
+               "axes": f"{cx}; {cy}", "bracket": f"[{bracket[0]:g}, {bracket[1]:g}]",
+               "log_scale": int(_on_log_scale(column))})
