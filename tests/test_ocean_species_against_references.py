@@ -89,7 +89,8 @@ def test_henry_constants_of_carbon_monoxide_and_methanol_at_25C():
     # (memory): CO 9.7e-6 mol/(m3 Pa) = 9.7e-4 mol/(kg bar); methanol 2.2 mol/(m3 Pa) = 220
     # mol/(kg bar). Methanol's gas comes from the CRC Handbook table in the chemicals 1.5.2 data
     # files (-162.3 kJ/mol). 0.1 in log10: the scatter of the compiled measurements
-    from redoxgibbs.species.database import R_J_MOL_K, default_database
+    from redoxgibbs.constants import R_J_MOL_K
+    from redoxgibbs.species.database import default_database
 
     assert _logK("CO(g) = CO(aq)", [25.0])[0] == pytest.approx(np.log10(9.7e-4), abs=0.1)
     G_aq = default_database().record("CH3OH(aq)").G_f

@@ -23,6 +23,7 @@ from importlib import resources
 import numpy as np
 import pandas as pd
 
+from ..constants import T_REF_K
 from ..errors import InputError
 from ..water.iapws95 import M_WATER_KG_PER_MOL as M_WATER_KG
 from .neutral import log10_gamma_neutral
@@ -44,7 +45,7 @@ __all__ = [
 
 B_PITZER = 1.2              # kg^0.5 mol^-0.5, Pitzer (1973), common to every ion pair
 ALPHA2 = 12.0               # kg^0.5 mol^-0.5, Harvie et al. (1984) for pairs with a beta2 term
-T_REF_PITZER_K = 298.15
+T_REF_PITZER_K = T_REF_K       # the reference temperature of the about25 and PP86 forms
 SIGNIFICANT_MOLALITY = 0.01  # mol/kg: a pair outside its parameters' range is flagged above this
 # Pitzer (1975) eq. 47: J(x) = x / (4 + C1 x^-C2 exp(-C3 x^C4))
 _J_C = (4.581, 0.7237, 0.0120, 0.528)

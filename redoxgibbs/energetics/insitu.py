@@ -13,14 +13,20 @@ from dataclasses import dataclass
 import numpy as np
 import pandas as pd
 
+from ..constants import R_J_MOL_K
 from ..flags import join_flags
-from ..species.database import R_J_MOL_K, default_database
+from ..species.database import default_database
 from ..species.properties import standard_properties
 from ..water.iapws95 import water_state
 from .growth import biomass_yield_Cmol_per_mol_donor, growth_models
 
-__all__ = ["InsituEnergetics", "insitu_energetics", "gibbs_energy_kernel", "energy_density_kernel",
-           "DEFAULT_MINIMUM_ENERGY_KJ"]
+__all__ = [
+    "DEFAULT_MINIMUM_ENERGY_KJ",
+    "InsituEnergetics",
+    "energy_density_kernel",
+    "gibbs_energy_kernel",
+    "insitu_energetics",
+]
 
 LN10 = np.log(10.0)
 #: Smallest |dGr| a catabolism is taken to use, per mole of reaction as written (Hoehler 2004,

@@ -29,7 +29,7 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from ..constants import R_J_MOL_K as R
-from ..constants import SECONDS_PER_YEAR
+from ..constants import SECONDS_PER_YEAR, T_REF_K
 from ..errors import InputError
 from ..units import column_label, conversion_factor
 from .body_supply import (
@@ -243,7 +243,7 @@ class CellRequirement:
 def maintenance_tijhuis_1993_W_per_Cmol(T_K):
     """Maintenance Gibbs-energy demand [W per C-mol of biomass] (Tijhuis et al. 1993)."""
     T = np.asarray(T_K, float)
-    kJ_per_h = TIJHUIS_MG_KJ_PER_CMOL_H * np.exp(TIJHUIS_EA_J_PER_MOL / R * (1 / 298.15 - 1 / T))
+    kJ_per_h = TIJHUIS_MG_KJ_PER_CMOL_H * np.exp(TIJHUIS_EA_J_PER_MOL / R * (1 / T_REF_K - 1 / T))
     return kJ_per_h * 1000.0 / 3600.0
 
 

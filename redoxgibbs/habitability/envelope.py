@@ -26,6 +26,7 @@ import pandas as pd
 
 from ..energetics.power import power_per_cell_W
 from ..errors import InputError
+from ..species.database import default_database
 from ..water.iapws95 import saturation_temperature_K
 
 __all__ = ["LIMIT_SOURCES", "VERDICTS", "Limits", "habitability_envelope"]
@@ -104,7 +105,6 @@ def habitability_envelope(evaluation, limits=Limits(), minimum_energy_kJ=None, s
     criterion is not assessed), against the per-cell demand of ``cells`` (a CellRequirement;
     default: the evaluation's cell model).
     """
-    from ..species.database import default_database
 
     db = default_database() if db is None else db
     s, result, e = evaluation.samples, evaluation.speciation, evaluation.energetics

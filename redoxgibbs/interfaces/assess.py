@@ -10,6 +10,7 @@ from ..energetics.catalog import resolve_reactions
 from ..errors import InputError
 from ..habitability.envelope import habitability_envelope
 from ..pipeline.evaluate import evaluate
+from ..pipeline.mixing import mixing_energetics
 from ..pipeline.profile import depth_profile
 from ..pipeline.thresholds import Target, feasibility_map, solve_input
 from ..speciation.samples import OCEAN_POSITION_COLUMNS, parse_column_header
@@ -80,7 +81,6 @@ def run_assessment(scenario_path, quiet=False):
     frames = _power_frames(scenario, ev)
     mixing = None
     if scenario.mixing:
-        from ..pipeline.mixing import mixing_energetics
 
         m = scenario.mixing
         _progress(steps, steps, f"mixing {m['hydrothermal']} into {m['seawater']}", quiet)

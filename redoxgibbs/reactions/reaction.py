@@ -12,8 +12,9 @@ from fractions import Fraction
 import numpy as np
 import pandas as pd
 
+from ..constants import R_J_MOL_K
 from ..errors import InputError, UnbalancedReactionError
-from ..species.database import R_J_MOL_K, default_database
+from ..species.database import default_database
 from ..species.equation import split_reaction
 from ..species.properties import standard_properties
 from ..units import to_bar, to_kelvin

@@ -16,11 +16,19 @@ import pandas as pd
 
 from ..errors import InputError, UnknownSpeciesError
 from ..flags import T_AT_FREEZING, join_flags
+from ..reactions.reaction import reaction_properties
 from ..species.database import default_database
 from ..species.elements import molar_mass_g_mol
+from ..species.properties import VALIDITY
 from ..units import to_unit
-from ..water.iapws95 import T_CRITICAL_K, liquid_density_kg_m3, psat_convention_bar
+from ..water.iapws95 import (
+    T_CRITICAL_K,
+    liquid_density_kg_m3,
+    psat_convention_bar,
+    saturation_pressure_bar,
+)
 from ..water.melting import melting_temperature
+from .system import _heavy_elements, decompose
 
 __all__ = ["SampleSet", "merge_sample_sets", "parse_column_header", "read_sample_table", "read_samples"]
 
@@ -171,8 +179,6 @@ def _pressures(frame, labels, T_K):
 def _state_problems(T_K, P_bar, t_col):
     """Per row, why the state lies outside the engine's range ('' where it does not); ice and
     vapour are screened by the speciation against the water equation of state."""
-    from ..species.properties import VALIDITY
-
     problems = np.full(T_K.shape, "", dtype=object)
     problems[np.isnan(P_bar)] = ("outside validity: P 'psat' is defined only below the critical temperature "
                                  "(373.946 degC; here up to 372.9 degC); give a pressure")
@@ -478,9 +484,6 @@ def _air_saturated_molality(species, T_K, labels, column, db, rows):
     """Molality [mol/kg] of a gas dissolved at equilibrium with water-saturated air at 1 atm and the
     sample's temperature: x_air (1.01325 bar - p_w(T)) K_H(T), with K_H of this project's data
     (salting-out neglected, stated)."""
-    from ..reactions.reaction import reaction_properties
-    from ..water.iapws95 import saturation_pressure_bar
-
     if species not in AIR_MOLE_FRACTION:
         raise InputError(f"column {column!r}: 'air-saturated' applies to {', '.join(AIR_MOLE_FRACTION)} only")
     if np.any(T_K >= 373.124):
@@ -556,7 +559,6 @@ def merge_sample_sets(sets, groups, db=None):
     its totals converted by the stoichiometry that relates the two; sample names must be unique
     across the sets.
     """
-    from .system import _heavy_elements, decompose
 
     db = default_database() if db is None else db
     owner = {}

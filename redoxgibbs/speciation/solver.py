@@ -14,14 +14,20 @@ import numpy as np
 import pandas as pd
 
 from ..activities.models import activity_model, ionic_strength, log10_water_activity
+from ..constants import R_J_MOL_K
 from ..errors import InputError, OutOfValidityError
-from ..flags import ALKALINITY_NOT_USED, ionic_strength_flag, join_flags, parameter_temperature_flag
-from ..species.database import R_J_MOL_K, default_database
+from ..flags import (
+    ALKALINITY_NOT_USED,
+    ionic_strength_flag,
+    join_flags,
+    parameter_temperature_flag,
+)
+from ..species.database import default_database
 from ..species.properties import standard_properties
 from ..water.born import debye_hueckel_A, debye_hueckel_B
 from ..water.dielectric import dielectric_johnson_norton_1991
-from ..water.ice import freezing_temperature
 from ..water.iapws95 import psat_convention_bar, water_state
+from ..water.ice import freezing_temperature
 from ..water.melting import T_TRIPLE_K
 from .samples import SampleSet, read_samples
 from .system import build_system, complexes_of

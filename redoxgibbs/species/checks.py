@@ -21,7 +21,9 @@ import numpy as np
 
 from ..constants import T_REF_K
 from ..standard_state.gas import nasa7_cp_h_s, nasa7_coefficients
+from ..standard_state.hkf_states import hkf_parameters, hkf_properties
 from ..units import CAL_TO_J
+from ..water.iapws95 import water_state
 from .elements import formation_entropy_offset
 
 __all__ = ["check_database", "gibbs_helmholtz_residual_J"]
@@ -48,22 +50,24 @@ def _check_ghs(rec):
     return []
 
 
-def _check_hkf_25C(db, records):
-    from .properties import standard_properties  # the engine itself recomputes Cp and V
-
-    names = [r.name for r in records]
-    props = standard_properties(names, np.array([T_REF_K]), np.array([1.0]), db=db)
+def _check_hkf_25C(records):
+    """Cp and V at 25 C, 1 bar recomputed from each record's HKF parameters (the engine's kernels)
+    against the values its source tabulates."""
+    T, P = np.array([T_REF_K]), np.array([1.0])
+    params = hkf_parameters([r.params["linear_cal"] for r in records], [r.params["omega_ref_cal"] for r in records],
+                            [float(r.charge) for r in records])
+    _, _, _, Cp, V = hkf_properties(params, water_state(T, P), T, P, ("Cp", "V"))
     out = []
     for j, rec in enumerate(records):
         omega_J = abs(rec.params["omega_ref_cal"]) * CAL_TO_J
         tol_cp = 1.0 + T_REF_K * omega_J * BORN_X_SPREAD
         tol_v = 0.5 + omega_J * BORN_Q_SPREAD * 10.0  # J/bar -> cm3
         cp_tab, v_tab = rec.params["Cp_tab_J"], rec.params["V_tab_cm3"]
-        if cp_tab is not None and abs(props.Cp[0, j] - cp_tab) > tol_cp:
-            out.append(f"{rec.name}: Cp at 25 C from the HKF parameters is {props.Cp[0, j]:.2f} J/mol/K, "
+        if cp_tab is not None and abs(Cp[0, j] - cp_tab) > tol_cp:
+            out.append(f"{rec.name}: Cp at 25 C from the HKF parameters is {Cp[0, j]:.2f} J/mol/K, "
                        f"the table says {cp_tab:.2f} (tolerance {tol_cp:.2f})")
-        if v_tab is not None and abs(props.V[0, j] - v_tab) > tol_v:
-            out.append(f"{rec.name}: V at 25 C from the HKF parameters is {props.V[0, j]:.2f} cm3/mol, "
+        if v_tab is not None and abs(V[0, j] - v_tab) > tol_v:
+            out.append(f"{rec.name}: V at 25 C from the HKF parameters is {V[0, j]:.2f} cm3/mol, "
                        f"the table says {v_tab:.2f} (tolerance {tol_v:.2f})")
     return out
 
@@ -94,5 +98,5 @@ def check_database(db):
             problems.extend(_check_gas(rec))
     hkf = [r for r in records if r.model == "hkf"]
     if hkf:
-        problems.extend(_check_hkf_25C(db, hkf))
+        problems.extend(_check_hkf_25C(hkf))
     return problems

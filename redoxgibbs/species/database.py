@@ -19,11 +19,21 @@ import pandas as pd
 
 from ..constants import R_J_MOL_K, T_REF_K
 from ..errors import InputError, SpeciesDataError, UnknownSpeciesError
+from ..standard_state.hkf_estimates import (
+    OMEGA_ENTROPY_SLOPE,
+    a1_constant_nonsolvation_volume,
+    c1_closing_heat_capacity,
+    c2_from_heat_capacity_shock_helgeson_1988,
+    omega_from_entropy_shock_helgeson_1990,
+)
 from ..units import CAL_TO_J
+from ..water.born import reference_born_functions
+from .checks import check_database
+from .elements import formation_entropy_offset
 from .equation import split_reaction
 from .formula import canonical_name, parse_formula, split_charge
 
-__all__ = ["SpeciesRecord", "SpeciesDatabase", "load_species_data", "default_database", "R_J_MOL_K"]
+__all__ = ["R_J_MOL_K", "SpeciesDatabase", "SpeciesRecord", "default_database", "load_species_data"]
 
 
 
@@ -82,7 +92,6 @@ def _hkf_records(table, path):
 def _entropy_offsets_by_charge(hkf_records):
     """beta_Z of the omega-entropy correlation, per charge Z, from the regressed HKF ions:
     the median of omega + 1514.4 S over the ions of that charge (0 for neutral species)."""
-    from ..standard_state.hkf_estimates import OMEGA_ENTROPY_SLOPE
 
     by_charge = {}
     for r in hkf_records:
@@ -95,10 +104,6 @@ def _entropy_offsets_by_charge(hkf_records):
 def _estimated_hkf_records(table, path, hkf_records):
     """HKF records whose parameters come from 25 C properties through the published correlations
     (:mod:`redoxgibbs.standard_state.hkf_estimates`)."""
-    from ..standard_state.hkf_estimates import (a1_constant_nonsolvation_volume, c1_closing_heat_capacity,
-                                                 c2_from_heat_capacity_shock_helgeson_1988,
-                                                 omega_from_entropy_shock_helgeson_1990)
-    from ..water.born import reference_born_functions
 
     born = reference_born_functions()
     X_r, Q_r = float(born.X), float(born.Q)
@@ -268,7 +273,6 @@ def _consistent_enthalpy(rec):
     G = H - TS hold exactly for every balanced reaction. The tabulated value is kept in
     ``params['H_f_tabulated_J']`` for the checks.
     """
-    from .elements import formation_entropy_offset
 
     H_f = rec.G_f + T_REF_K * (rec.S - formation_entropy_offset(rec.elements, rec.charge))
     params = dict(rec.params, H_f_tabulated_J=rec.H_f)
@@ -344,7 +348,6 @@ def load_species_data(extra_files=(), check=True):
         add(_formation_records(t, path, dict(records)))
     db = SpeciesDatabase(_consistent_enthalpy(r) for r in records.values())
     if check:
-        from .checks import check_database
 
         problems = check_database(db)
         if problems:

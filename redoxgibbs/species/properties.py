@@ -13,14 +13,10 @@ from ..errors import OutOfValidityError
 from ..flags import BELOW_0C, FORMATION_ENTHALPY_MISSING, LOW_DENSITY, NEAR_CRITICAL, OUTSIDE_FORMATION_RANGE
 from ..standard_state.formation import vant_hoff_reaction_entropy, vant_hoff_reaction_gibbs
 from ..standard_state.gas import apparent_gas_properties, nasa7_coefficients
-from ..standard_state.gfunction import g_function_shock_1992
-from ..standard_state.hkf import (HKFParameters, SolventTerms, hkf_enthalpy, hkf_entropy,
-                                  hkf_gibbs, hkf_heat_capacity, hkf_volume, solvation_omega)
+from ..standard_state.hkf_states import hkf_parameters, hkf_properties
 from ..standard_state.mineral import maier_kelley_properties
 from ..standard_state.solvent import apparent_water_properties
 from ..units import CAL_TO_J
-from ..water.born import born_functions, reference_born_functions
-from ..water.dielectric import dielectric_along_TP
 from ..water.iapws95 import near_critical, water_state
 from .database import default_database
 
@@ -65,27 +61,10 @@ def validate_states(T_K, P_bar):
             "equations; give pressures up to 5000 bar")
 
 
-def _solvent_terms(water, params, n):
-    born = born_functions(dielectric_along_TP(water))
-    born_r = reference_born_functions()
-    gfun = g_function_shock_1992(water.T_K, water.P_bar, water)
-    omega = solvation_omega(params, gfun, n)
-    return SolventTerms(Z=born.Z, Y=born.Y, Q=born.Q, X=born.X, Z_ref=float(born_r.Z),
-                        Y_ref=float(born_r.Y), omega=omega[0], omega_T=omega[1],
-                        omega_TT=omega[2], omega_P=omega[3])
-
-
 def _hkf_block(records, water, T, P, wanted):
-    params = HKFParameters(
-        linear=np.stack([r.params["linear_cal"] for r in records], axis=1),
-        omega_ref=np.array([r.params["omega_ref_cal"] for r in records]),
-        charge=np.array([float(r.charge) for r in records]))
-    solvent = _solvent_terms(water, params, T.size)
-    cal = CAL_TO_J
-    equations = {"G": (hkf_gibbs, cal), "H": (hkf_enthalpy, cal), "S": (hkf_entropy, cal),
-                 "Cp": (hkf_heat_capacity, cal), "V": (hkf_volume, 1.0)}
-    return [equations[p][0](params, T, P, solvent) * equations[p][1] if p in wanted else np.nan
-            for p in ("G", "H", "S", "Cp", "V")]
+    params = hkf_parameters([r.params["linear_cal"] for r in records], [r.params["omega_ref_cal"] for r in records],
+                            [float(r.charge) for r in records])
+    return hkf_properties(params, water, T, P, wanted)
 
 
 def _closure(db, names):

@@ -13,12 +13,13 @@ import cantera as ct
 import numpy as np
 
 from ..constants import R_J_MOL_K as R
+from ..constants import T_REF_K
 
-__all__ = ["nasa7_coefficients", "nasa7_cp_h_s", "apparent_gas_properties"]
+__all__ = ["apparent_gas_properties", "nasa7_coefficients", "nasa7_cp_h_s"]
 
 
 
-@functools.lru_cache(maxsize=None)
+@functools.cache
 def nasa7_coefficients(nasa_name):
     """(T_low, T_mid, T_high, low-range coefficients (7,), high-range coefficients (7,))."""
     species = {s.name: s for s in _nasa_species()}
@@ -51,7 +52,7 @@ def apparent_gas_properties(coeffs, G_f, H_f, S_ref, T):
     convention; the (T - Tr) term carries the tabulated S_ref into G, so dG/dT = -S exactly).
     Returns G, H [J/mol], S, Cp [J/mol/K].
     """
-    T_ref = np.array(298.15)
+    T_ref = np.array(T_REF_K)
     cp, h, s = nasa7_cp_h_s(coeffs, T)
     _, h_r, s_r = nasa7_cp_h_s(coeffs, T_ref)
     G = G_f + (h - T * s) - (h_r - T_ref * s_r) + (s_r - S_ref) * (T - T_ref)

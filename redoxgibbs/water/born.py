@@ -10,11 +10,17 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from ..constants import P_REF_BAR, T_REF_K
 from .dielectric import dielectric_along_TP
 from .iapws95 import water_state
 
-__all__ = ["BornFunctions", "born_functions", "reference_born_functions", "debye_hueckel_A",
-           "debye_hueckel_B"]
+__all__ = [
+    "BornFunctions",
+    "born_functions",
+    "debye_hueckel_A",
+    "debye_hueckel_B",
+    "reference_born_functions",
+]
 
 # CODATA 2018 exact / recommended constants
 _E_CHARGE = 1.602176634e-19      # C
@@ -45,7 +51,7 @@ def born_functions(dielectric):
 @functools.lru_cache(maxsize=1)
 def reference_born_functions():
     """Born functions at 25 C, 1 bar (the reference state of the HKF parameters)."""
-    return born_functions(dielectric_along_TP(water_state(298.15, 1.0)))
+    return born_functions(dielectric_along_TP(water_state(T_REF_K, P_REF_BAR)))
 
 
 def _inverse_debye_length_per_m(T_K, density_kg_m3, eps):
