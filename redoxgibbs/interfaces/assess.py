@@ -33,6 +33,7 @@ class Assessment:
     envelope: pd.DataFrame = None      # the habitability envelope, sample x criterion
     thresholds: pd.DataFrame = None    # the [thresholds] section solved per sample
     feasibility: object = None         # its map (an xarray Dataset), when it asks for one
+    dataset: object = None             # the evaluation as an xarray Dataset (sample x reaction x supply)
 
 
 def _progress(step, total, text, quiet):
@@ -91,7 +92,8 @@ def run_assessment(scenario_path, quiet=False):
     profile, profile_sample = _ocean_profile(scenario, db, quiet)
     thresholds, feasibility = scenario_thresholds(scenario, db, quiet) if "thresholds" in scenario.raw else (None, None)
     return Assessment(scenario, samples, ev.speciation, ev.energetics, pd.concat(frames, ignore_index=True),
-                      mixing, profile, profile_sample, _envelope(scenario, ev, db), thresholds, feasibility)
+                      mixing, profile, profile_sample, _envelope(scenario, ev, db), thresholds, feasibility,
+                      ev.to_dataset())
 
 
 def _envelope(scenario, ev, db):

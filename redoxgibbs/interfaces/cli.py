@@ -2,11 +2,13 @@
 
 import argparse
 import itertools
+import json
 import os
 import sys
 from pathlib import Path
 
 import numpy as np
+import pandas as pd
 
 from ..activities.models import MODELS
 from ..energetics.catalog import (
@@ -33,11 +35,31 @@ def _number_list(text, field):
         raise RedoxGibbsError(f"--{field}: expected comma-separated numbers, got {text!r}") from None
 
 
-def _write_frame(frame, fmt, table_columns, note=""):
-    """Print a result table: every column as CSV, or the chosen columns as text with the caution."""
+#: Output formats of every command's table: text for reading, CSV or JSON (records) for programs
+FORMATS = ("table", "csv", "json")
+
+
+def _json_scalar(value):
+    """numpy scalars as plain Python numbers and flags for JSON."""
+    return value.item() if isinstance(value, np.generic) else str(value)
+
+
+def _machine_output(frame, fmt):
+    """Write every column of ``frame`` as CSV or JSON (a list of records) and return True; False for
+    the text table, which the caller prints its own way."""
     if fmt == "csv":
         sys.stdout.write(frame.to_csv(index=False, float_format="%.6g"))
+    elif fmt == "json":
+        records = frame.astype(object).where(pd.notna(frame), None).to_dict(orient="records")
+        sys.stdout.write(json.dumps(records, default=_json_scalar) + "\n")   # floats at full precision
     else:
+        return False
+    return True
+
+
+def _write_frame(frame, fmt, table_columns, note=""):
+    """Print a result table: every column as CSV or JSON, or the chosen columns as text with the caution."""
+    if not _machine_output(frame, fmt):
         print(frame[table_columns].to_string(index=False, float_format=lambda v: f"{v:.4g}"))
         print("\n" + note + SCREENING_NOTE)
     return 0
@@ -66,9 +88,7 @@ def _stdstate(args):
     T = np.array([t for t, _ in pairs])
     P = "psat" if psat else np.array([p for _, p in pairs])
     frame = reaction_properties(reaction, T, P).to_frame()
-    if args.format == "csv":
-        sys.stdout.write(frame.to_csv(index=False, float_format="%.6g"))
-    else:
+    if not _machine_output(frame, args.format):
         print(f"Reaction: {reaction}\n")
         print(frame.to_string(index=False, float_format=lambda v: f"{v:.4f}"))
         print("\nlogK, dG0 etc.: standard states (aqueous: 1 molal ideal; gases: 1 bar; solids and "
@@ -79,8 +99,7 @@ def _stdstate(args):
 def _speciation(args):
     result = speciate(read_samples(args.samples, below_detection=args.below_detection), args.activity_model,
                       pH_from_charge_balance=args.pH_from_charge_balance)
-    if args.format == "csv":
-        sys.stdout.write(result.to_long_frame().to_csv(index=False, float_format="%.6g"))
+    if _machine_output(result.to_long_frame(), args.format):
         return _failures(result.samples, result.failure)
     summary = result.summary_frame()
     long = result.to_long_frame()
@@ -124,14 +143,18 @@ def _insitu(args):
 def _reactions(args):
     if args.present_in:
         present = couples_present(species_in_samples(args.present_in))
-        print(f"couples whose dissolved species are in {args.present_in}: {', '.join(present)}\n")
+        if args.format == "table":
+            print(f"couples whose dissolved species are in {args.present_in}: {', '.join(present)}\n")
         entries = enumerate_reactions(args.donor or present, args.acceptor or present)
     elif args.donor or args.acceptor:
         entries = enumerate_reactions(args.donor or None, args.acceptor or None)
     else:
         entries = catalog()
-    for e in entries:
-        print(f"{e.name:<52} {e.electrons:5.3g} e-   {e.reaction}")
+    frame = pd.DataFrame({"name": [e.name for e in entries], "electrons": [e.electrons for e in entries],
+                          "reaction": [str(e.reaction) for e in entries]})
+    if not _machine_output(frame, args.format):
+        for e in entries:
+            print(f"{e.name:<52} {e.electrons:5.3g} e-   {e.reaction}")
     return 0
 
 
@@ -139,9 +162,7 @@ def _ledger(args):
     from ..species.ledger import verification_ledger
 
     frame = verification_ledger(args.species or None)
-    if args.format == "csv":
-        sys.stdout.write(frame.to_csv(index=False))
-    else:
+    if not _machine_output(frame, args.format):
         for row in frame.itertuples():
             memory = "entered from memory" if row.entered_from_memory else "from an outside table"
             reach = "no outside check yet" if np.isnan(row.checked_to_T_C) else f"checked to {row.checked_to_T_C:g} C"
@@ -202,7 +223,7 @@ def _mix(args):
 
 
 def _sweep(args):
-    from ..sweeps.runner import run_sweep
+    from ..sweeps.runner import results_dataset, run_sweep, write_netcdf
     from .scenario import load_scenario, sweep_spec
 
     spec = sweep_spec(load_scenario(args.scenario))
@@ -210,12 +231,14 @@ def _sweep(args):
                                           scheduler=args.scheduler, quiet=args.quiet, fresh=args.fresh)
     percentiles.to_csv(f"{args.out}/percentiles.csv", index=False)
     correlations.to_csv(f"{args.out}/rank_correlations.csv", index=False)
+    write_netcdf(results_dataset(spec, args.out), f"{args.out}/results.nc")
     print(percentiles.to_string(index=False, float_format=lambda v: f"{v:.4g}"))
-    print(f"\nchunks, percentiles.csv and rank_correlations.csv in {args.out}")
+    print(f"\nchunks (Parquet), results.nc, percentiles.csv and rank_correlations.csv in {args.out}")
     return 0
 
 
 def _thresholds(args):
+    from ..sweeps.runner import write_netcdf
     from .assess import scenario_thresholds
     from .report import feasibility_figure
     from .scenario import load_scenario
@@ -229,7 +252,7 @@ def _thresholds(args):
         out.mkdir(parents=True, exist_ok=True)
         table.to_csv(out / "thresholds.csv", index=False)
         if ds is not None:
-            ds.to_netcdf(out / "feasibility_map.nc", engine="scipy")
+            write_netcdf(ds, out / "feasibility_map.nc")
             feasibility_figure(ds, out / "feasibility_map.png")
         print(f"thresholds.csv{' , feasibility_map.nc and feasibility_map.png' if ds is not None else ''} in {out}",
               file=sys.stderr)
@@ -254,16 +277,17 @@ def _parser():
     std.add_argument("--pressure", default="psat",
                      help="comma-separated list in bar, or 'psat' (1.01325 bar to 100 degC, "
                           "saturation above; the default)")
-    std.add_argument("--format", choices=("table", "csv"), default="table")
+    std.add_argument("--format", choices=FORMATS, default="table")
     std.set_defaults(run=_stdstate)
     spc = sub.add_parser("speciation", help="in-situ speciation of a table of fluid samples")
-    spc.add_argument("samples", help="CSV: sample, T [degC], P [bar], pH, SPECIES [UNIT] columns")
+    spc.add_argument("samples", help="CSV or Excel workbook (.xlsx; its sheets one after the other): sample, "
+                                  "T [degC], P [bar], pH, SPECIES [UNIT] columns")
     spc.add_argument("--activity-model", choices=tuple(MODELS), default="bdot")
     spc.add_argument("--below-detection", choices=BELOW_DETECTION_POLICIES, default="not-measured",
                      help="cells such as '<0.1', 'bdl', 'nd': not measured (default), at the limit, or half of it")
     spc.add_argument("--pH-from-charge-balance", action="store_true",
                      help="solve pH from charge balance where the pH cell is blank")
-    spc.add_argument("--format", choices=("table", "csv"), default="table")
+    spc.add_argument("--format", choices=FORMATS, default="table")
     spc.add_argument("--top", type=int, default=8, help="species listed per sample in the table view")
     spc.set_defaults(run=_speciation)
     ins = sub.add_parser("insitu", help="in-situ Gibbs energies and energy densities of reactions")
@@ -278,7 +302,7 @@ def _parser():
                      help="kJ per mol of reaction below which |dGr| is flagged (default %(default)s)")
     ins.add_argument("--per-species", action="append", metavar="SPECIES",
                      help="also report dGr per mole of this species, e.g. H2(aq); repeat for several")
-    ins.add_argument("--format", choices=("table", "csv"), default="table")
+    ins.add_argument("--format", choices=FORMATS, default="table")
     ins.set_defaults(run=_insitu)
     rxn = sub.add_parser("reactions", help="list the reaction catalog, or enumerate donor x acceptor pairs")
     rxn.add_argument("--donor", action="append", help="redox couple giving electrons, e.g. H+/H2")
@@ -286,11 +310,12 @@ def _parser():
     rxn.add_argument("--present-in", metavar="SAMPLES.csv",
                      help="enumerate the couples whose dissolved species these samples contain "
                           "(solids count as available); --donor/--acceptor override either side")
+    rxn.add_argument("--format", choices=FORMATS, default="table")
     rxn.set_defaults(run=_reactions)
     led = sub.add_parser("ledger", help="the verification ledger: each species' source and the outside "
                                         "checks its data pass")
     led.add_argument("species", nargs="*", help="species to list (default: all)")
-    led.add_argument("--format", choices=("table", "csv"), default="table")
+    led.add_argument("--format", choices=FORMATS, default="table")
     led.set_defaults(run=_ledger)
     keys = sub.add_parser("scenario-keys", help="every key a scenario file may hold, its type and meaning")
     keys.set_defaults(run=_scenario_keys)
@@ -311,7 +336,7 @@ def _parser():
     mix.add_argument("--below-detection", choices=BELOW_DETECTION_POLICIES, default="not-measured",
                      help="cells such as '<0.1', 'bdl', 'nd': not measured (default), at the limit, or half of it")
     mix.add_argument("--plot", help="write the energy-against-temperature figure to this PNG/SVG file")
-    mix.add_argument("--format", choices=("table", "csv"), default="table")
+    mix.add_argument("--format", choices=FORMATS, default="table")
     mix.set_defaults(run=_mix)
     swp = sub.add_parser("sweep", help="grid or Monte Carlo sweep of a scenario's [sweep] / [uncertainty]")
     swp.add_argument("scenario")
@@ -326,7 +351,7 @@ def _parser():
                                             "reaches a target, per sample or over a feasibility map")
     thr.add_argument("scenario")
     thr.add_argument("--out", help="folder for thresholds.csv (and feasibility_map.nc and .png)")
-    thr.add_argument("--format", choices=("table", "csv"), default="table")
+    thr.add_argument("--format", choices=FORMATS, default="table")
     thr.add_argument("--quiet", action="store_true")
     thr.set_defaults(run=_thresholds)
     demo = sub.add_parser("demo", help="run the bundled demo scenario (invented sites)")

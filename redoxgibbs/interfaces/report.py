@@ -12,6 +12,7 @@ import numpy as np
 import pandas as pd
 
 from ..species.ledger import verification_ledger
+from ..sweeps.runner import write_netcdf
 
 __all__ = ["SCREENING_NOTE", "mixing_figure", "profile_figure", "write_outputs"]
 
@@ -267,6 +268,8 @@ def write_outputs(assessment, out_dir):
     out.mkdir(parents=True, exist_ok=True)
     results = assessment.results
     results.to_csv(out / "results.csv", index=False)
+    if assessment.dataset is not None:
+        write_netcdf(assessment.dataset, out / "results.nc")
     # each site's first supply model (results are site by site, each site's models in order)
     first = results.drop_duplicates(subset=["sample", "reaction"], keep="first")
     units = assessment.scenario.power_units
@@ -286,7 +289,7 @@ def write_outputs(assessment, out_dir):
     if assessment.thresholds is not None:
         assessment.thresholds.to_csv(out / "thresholds.csv", index=False)
     if assessment.feasibility is not None:
-        assessment.feasibility.to_netcdf(out / "feasibility_map.nc", engine="scipy")
+        write_netcdf(assessment.feasibility, out / "feasibility_map.nc")
         svgs["feasibility_map"] = feasibility_figure(assessment.feasibility, out / "feasibility_map.png")
         (out / "feasibility_map.svg").write_text(svgs["feasibility_map"])
     envelope = _envelope_summary(assessment.envelope)

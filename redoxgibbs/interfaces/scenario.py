@@ -27,11 +27,13 @@ from ..energetics.power import CellRequirement, PowerUnits, Supply
 from ..errors import InputError
 from ..habitability.envelope import Limits
 from ..speciation.samples import (
+    EXCEL_SUFFIXES,
     SampleSet,
     merge_sample_sets,
     parse_column_header,
     read_sample_table,
     read_samples,
+    read_workbook,
 )
 from ..speciation.solver import species_in_samples
 from ..species.database import default_database
@@ -92,13 +94,22 @@ class Scenario:
         return np.concatenate([[s.name] * (s.rows.stop - s.rows.start) for s in self.sites])
 
 
-def _site_frame(site, folder):
-    """A site's samples as written: its CSV (relative to the scenario file) or its inline fluid."""
+def _site_frames(site, folder):
+    """A site's samples as written, as (site name, DataFrame) pairs: its inline fluid, its CSV
+    (relative to the scenario file), or its Excel workbook: the sheet ``sheet``, or one site per
+    sheet (named 'SITE: SHEET') when the workbook has several and no sheet is named."""
     if "fluid" in site:
-        return pd.DataFrame([{"sample": site["name"], **site["fluid"]}])
+        return [(site["name"], pd.DataFrame([{"sample": site["name"], **site["fluid"]}]))]
     path = (folder / site["samples"]).resolve()
     try:
-        return read_sample_table(path)
+        if str(path).lower().endswith(EXCEL_SUFFIXES):
+            sheets = read_workbook(path, site.get("sheet"))
+            if len(sheets) == 1:
+                return [(site["name"], next(iter(sheets.values())))]
+            return [(f"{site['name']}: {name}", frame) for name, frame in sheets.items()]
+        if "sheet" in site:
+            raise InputError(f"sheet {site['sheet']!r} is given, but {path.name} is not an Excel workbook")
+        return [(site["name"], read_sample_table(path))]
     except InputError as err:
         raise InputError(f"scenario: site {site['name']!r}: {err}") from None
 
@@ -165,24 +176,25 @@ def load_scenario(path):
     check_scenario(data)
     db = default_database()
     body = _body(data.get("body"))
-    frames, sets, names = [], [], []
+    frames, sets, names, specs = [], [], [], []
     for site in data["sites"]:
-        frame = _site_frame(site, path.parent)
-        try:
-            sets.append(read_samples(frame, db=db, below_detection=data.get("below_detection", "not-measured"),
-                                     body=body))
-        except InputError as err:
-            raise InputError(f"scenario: site {site['name']!r}: {err}") from None
-        frames.append(frame.assign(site=site["name"]))
-        names.append(site["name"])
+        for name, frame in _site_frames(site, path.parent):
+            try:
+                sets.append(read_samples(frame, db=db, below_detection=data.get("below_detection", "not-measured"),
+                                         body=body))
+            except InputError as err:
+                raise InputError(f"scenario: site {name!r}: {err}") from None
+            frames.append(frame.assign(site=name))
+            names.append(name)
+            specs.append(site)
     sample_set = merge_sample_sets(sets, names, db)
     frame = pd.concat(frames, ignore_index=True)
     frame.insert(0, "site", frame.pop("site"))
     supplies = _supplies(data.get("supply", []))
     cells = _cells(data.get("cells", {}))
     sites, start = [], 0
-    for site, s in zip(data["sites"], sets):
-        sites.append(Site(name=site["name"], rows=slice(start, start + len(s)),
+    for name, site, s in zip(names, specs, sets):
+        sites.append(Site(name=name, rows=slice(start, start + len(s)),
                           supplies=_supplies(site["supply"]) if "supply" in site else supplies,
                           cells=_cells(site["cells"], cells) if "cells" in site else cells))
         start += len(s)

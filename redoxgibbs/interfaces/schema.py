@@ -14,7 +14,7 @@ from ..activities.models import MODELS
 from ..energetics.power import SUPPLY_OPTIONAL, SUPPLY_PARAMETERS
 from ..errors import InputError
 
-__all__ = ["Key", "SCENARIO", "check_scenario", "schema_reference"]
+__all__ = ["SCENARIO", "Key", "check_scenario", "schema_reference"]
 
 
 @dataclass(frozen=True)
@@ -73,7 +73,8 @@ CELLS = {
 
 SITE = {
     "name": Key("str", "site name", required=True),
-    "samples": Key("str", "sample table (CSV), relative to the scenario file"),
+    "samples": Key("str", "sample table (CSV or Excel .xlsx), relative to the scenario file"),
+    "sheet": Key("str", "the workbook's sheet (default: every sheet, one site per sheet)"),
     "fluid": Key("columns", "one inline sample: sample-table columns to values"),
     "supply": Key("tables", "supply models of this site (default: the scenario's [[supply]])", keys=SUPPLY),
     "cells": Key("table", "per-cell power model of this site (default: the scenario's [cells])", keys=CELLS),

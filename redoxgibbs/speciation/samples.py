@@ -1,6 +1,7 @@
 """Sample tables as labs report them, turned into molalities at 1 kg of water.
 
-Contract (one row per sample; other columns may be added and are ignored):
+Tables are CSV files or Excel workbooks (.xlsx). Contract (one row per sample; other columns may
+be added and are ignored):
 ``sample``, ``T [degC]``, ``P [bar]`` (a number or ``psat``), ``pH``, optionally ``pH T [degC]``
 and ``density [g/cm3]``; composition columns ``SPECIES [UNIT]`` holding the analytical total of
 that species' component; gas columns ``GAS(g) [bar|atm|Pa|MPa]`` fixing its fugacity. Blank cells
@@ -30,7 +31,8 @@ from ..water.iapws95 import (
 from ..water.melting import melting_temperature
 from .system import _heavy_elements, decompose
 
-__all__ = ["SampleSet", "merge_sample_sets", "parse_column_header", "read_sample_table", "read_samples"]
+__all__ = ["SampleSet", "merge_sample_sets", "parse_column_header", "read_sample_table", "read_samples",
+           "read_workbook"]
 
 _HEADER = re.compile(r"^\s*(.+?)\s*\[\s*(.+?)\s*\]\s*$")
 _PREFIX = {"": 1.0, "m": 1e-3, "u": 1e-6, "n": 1e-9}
@@ -206,11 +208,48 @@ def _read_csv(path):
         raise InputError(f"samples: file {path} is not a readable CSV table ({err})") from None
 
 
-def read_sample_table(path):
-    """The sample table at ``path`` as written (a DataFrame), its file and header problems refused."""
+EXCEL_SUFFIXES = (".xlsx", ".xlsm")
+
+
+def read_sample_table(path, sheet=None):
+    """The sample table at ``path`` as written (a DataFrame), its file and header problems refused.
+
+    CSV, or an Excel workbook (.xlsx): the sheet ``sheet``, or every sheet one after the other
+    (see :func:`read_workbook` for one table per sheet).
+    """
+    if str(path).lower().endswith(EXCEL_SUFFIXES):
+        sheets = read_workbook(path, sheet)
+        return next(iter(sheets.values())) if len(sheets) == 1 else pd.concat(sheets.values(), ignore_index=True)
     frame = _read_csv(path)
     _check_columns(_csv_header(path))
     return frame
+
+
+def read_workbook(path, sheet=None):
+    """The sample tables of an Excel workbook, {sheet name: DataFrame} (only ``sheet`` when given),
+    each sheet's first row its header; empty sheets are skipped."""
+    try:
+        raw = pd.read_excel(path, sheet_name=sheet if sheet is not None else None, header=None, dtype=object)
+    except FileNotFoundError:
+        raise InputError(f"samples: file {path} does not exist") from None
+    except ValueError as err:   # an unknown sheet name, or not a workbook
+        raise InputError(f"samples: {path}: {err}") from None
+    except Exception as err:    # a damaged or encrypted file: openpyxl's own errors
+        raise InputError(f"samples: {path} cannot be read as an Excel workbook ({err})") from None
+    raw = {sheet: raw} if sheet is not None else raw
+    out = {}
+    for name, table in raw.items():
+        table = table.dropna(how="all").dropna(axis=1, how="all")
+        if table.empty:
+            continue
+        header = [str(c).strip() for c in table.iloc[0]]
+        _check_columns(header)
+        frame = table.iloc[1:].reset_index(drop=True)
+        frame.columns = header
+        out[name] = frame.infer_objects()
+    if not out:
+        raise InputError(f"samples: {path} holds no sample table (every sheet is empty)")
+    return out
 
 
 def _csv_header(path):

@@ -29,16 +29,24 @@ from ..errors import InputError
 from ..pipeline.evaluate import evaluate
 from ..pipeline.mixing import mixtures
 from ..reactions.reaction import Reaction
-from ..species.database import default_database
 from ..speciation.samples import read_samples
+from ..species.database import default_database
 from ..water.iapws95 import water_state
 from ..water.table import WaterTable
 
 _WORKER_MALLOC = {"distributed.nanny.pre-spawn-environ.MALLOC_TRIM_THRESHOLD_": 1 << 30,
                   "distributed.nanny.pre-spawn-environ.MALLOC_MMAP_THRESHOLD_": 1 << 25}
 
-__all__ = ["Distribution", "SweepSpec", "reaction_records", "run_chunk", "run_sweep", "summarize", "load_results",
-           "grid_dataset"]
+__all__ = [
+    "Distribution",
+    "SweepSpec",
+    "grid_dataset",
+    "load_results",
+    "reaction_records",
+    "run_chunk",
+    "run_sweep",
+    "summarize",
+]
 
 
 @dataclass(frozen=True)
@@ -409,3 +417,25 @@ def grid_dataset(spec, out_dir):
     data = {c: (dims, frame[c].to_numpy().reshape(shape)) for c in frame.columns
             if "|" in c or c in ("pH_insitu", "flags", "failure")}
     return xr.Dataset(data, coords=coords)
+
+
+def results_dataset(spec, out_dir):
+    """A sweep's results as an xarray Dataset: a grid's with one dimension per grid input
+    (:func:`grid_dataset`), Monte Carlo draws along the dimension ``draw``."""
+    import xarray as xr
+
+    if spec.is_grid:
+        return grid_dataset(spec, out_dir)
+    frame = load_results(out_dir)
+    return xr.Dataset({c: ("draw", frame[c].to_numpy()) for c in frame.columns if c != "draw"},
+                      coords={"draw": frame["draw"].to_numpy()})
+
+
+def write_netcdf(dataset, path):
+    """Write a Dataset to a NetCDF (classic, version 3) file through scipy: text variables become
+    character arrays, numbers stay float64."""
+    encoded = dataset.copy()
+    for name, var in encoded.variables.items():
+        if var.dtype == object:
+            encoded[name] = var.astype(str)
+    encoded.to_netcdf(path, engine="scipy")
