@@ -5,18 +5,28 @@ import shutil
 import subprocess
 from contextlib import redirect_stdout
 
+import matplotlib
 import numpy as np
 import pandas as pd
 import pytest
+from scenarios import POOL_SCENARIO
 
 from redoxgibbs.energetics.catalog import catalog, enumerate_reactions
-from redoxgibbs.energetics.insitu import energy_density_kernel, gibbs_energy_kernel, insitu_energetics
-from redoxgibbs.energetics.power import (CellRequirement, Supply, maintenance_tijhuis_1993_W_per_Cmol,
-                                         power_per_cell_W, power_per_volume)
+from redoxgibbs.energetics.insitu import (
+    energy_density_kernel,
+    gibbs_energy_kernel,
+    insitu_energetics,
+)
+from redoxgibbs.energetics.power import (
+    CellRequirement,
+    Supply,
+    maintenance_tijhuis_1993_W_per_Cmol,
+    power_per_cell_W,
+    power_per_volume,
+)
 from redoxgibbs.interfaces.cli import main
 from redoxgibbs.reactions.reaction import Reaction, reaction_properties
 from redoxgibbs.speciation.solver import speciate
-from scenarios import POOL_SCENARIO
 
 R = 8.314462618
 LN10 = np.log(10)
@@ -242,10 +252,42 @@ def test_report_renders_in_headless_chromium(tmp_path):
                    capture_output=True)
     dom = subprocess.run([CHROMIUM, *flags, "--dump-dom", url], check=True, timeout=120,
                          capture_output=True, text=True).stdout
-    assert dom.count("<svg") >= 4 and dom.count("<table") >= 4
     import matplotlib.image as mpimg
     pixels = mpimg.imread(shot)
     assert pixels.shape[0] > 1000 and pixels[..., :3].std() > 0.05   # not a blank page
+    from redoxgibbs.interfaces.report import SECTIONS
+
+    for title in SECTIONS:                                  # every section, in the rendered page
+        assert f"<h2>{title}</h2>" in dom, title
+    figures = [p.stem for p in tmp_path.glob("*.png") if p.stem != "shot"]
+    assert dom.count("<figure") == len(figures) >= 7         # every figure is in the page, inline
+    assert dom.count("<svg") >= len(figures) and dom.count('class="scroll"') >= 7   # every table in its box
+    assert "http://" not in dom.split("<body")[1].split("<svg")[0] and "<script src" not in dom   # no network
+
+
+def test_report_figures_have_no_overlapping_legends_or_labels():
+    # the figure objects themselves: legends outside every plotting area, tick labels apart
+    from redoxgibbs.interfaces.assess import run_assessment
+    from redoxgibbs.interfaces.figures import figure_problems, reaction_styles
+    from redoxgibbs.interfaces.report import report_figures
+
+    assessment = run_assessment("examples/demo_scenario.toml", quiet=True)
+    figures = report_figures(assessment)
+    assert set(figures) >= {"gibbs_per_electron", "energy_density", "heat_map", "power_and_cells", "mixing_path",
+                            "depth_profile", "feasibility_map"}
+    for stem, (fig, caption) in figures.items():
+        assert figure_problems(fig) == [], stem
+        assert len(caption) > 60, stem
+    # one style per reaction, the same in every figure that draws reactions
+    styles = reaction_styles([x.name for x in assessment.scenario.reactions])
+    assert len({(s["color"], s["marker"]) for s in styles.values()}) == len(styles)
+    for stem in ("gibbs_per_electron", "mixing_path"):
+        fig = figures[stem][0]
+        handles = {t.get_text(): h for legend in fig.legends for h, t in zip(legend.legend_handles, legend.get_texts())}
+        for name, handle in handles.items():
+            colour = handle.get_facecolor()[0] if hasattr(handle, "get_facecolor") and stem != "mixing_path" \
+                else handle.get_color()
+            assert matplotlib.colors.to_hex(colour) == styles[name]["color"].lower(), (stem, name)
 
 
 # --- mixing -----------------------------------------------------------------------------------
@@ -259,9 +301,9 @@ def _end_members():
 
 
 def test_mixing_conserves_elements_and_mass():
-    from redoxgibbs.species.database import default_database
     from redoxgibbs.speciation.mixing import mixture_samples
     from redoxgibbs.speciation.samples import read_samples
+    from redoxgibbs.species.database import default_database
 
     db = default_database()
     s = read_samples(_end_members())

@@ -204,7 +204,7 @@ def _demo(args):
 
 def _mix(args):
     from ..pipeline.mixing import mixing_energetics
-    from .report import mixing_figure
+    from .figures import mixing_figure
 
     if (args.fractions is None) == (args.temperatures is None):
         raise RedoxGibbsError("mix: give either --fractions or --temperatures")
@@ -214,7 +214,8 @@ def _mix(args):
         temperatures_C=None if args.temperatures is None else _number_list(args.temperatures, "temperatures"),
         rule=args.temperature_rule, activity_model_name=args.activity_model)
     if args.plot:
-        mixing_figure(frame, args.plot)
+        fig, _ = mixing_figure(frame)
+        fig.savefig(args.plot, dpi=110)
     cols = ["hydrothermal_fraction", "T_C", "pH_insitu", "reaction", "dGr_kJ_per_mol",
             "energy_J_per_kg_mixed_fluid", "energy_J_per_kg_hydrothermal_fluid", "failure"]
     _write_frame(frame, args.format, cols)
@@ -240,7 +241,8 @@ def _sweep(args):
 def _thresholds(args):
     from ..sweeps.runner import write_netcdf
     from .assess import scenario_thresholds
-    from .report import feasibility_figure
+    from .figures import feasibility_figure
+    from .report import save_figure
     from .scenario import load_scenario
 
     scenario = load_scenario(args.scenario)
@@ -253,8 +255,8 @@ def _thresholds(args):
         table.to_csv(out / "thresholds.csv", index=False)
         if ds is not None:
             write_netcdf(ds, out / "feasibility_map.nc")
-            feasibility_figure(ds, out / "feasibility_map.png")
-        print(f"thresholds.csv{' , feasibility_map.nc and feasibility_map.png' if ds is not None else ''} in {out}",
+            save_figure(feasibility_figure(ds)[0], out, "feasibility_map")
+        print(f"thresholds.csv{', feasibility_map.nc, .png and .svg' if ds is not None else ''} in {out}",
               file=sys.stderr)
     column = scenario.raw["thresholds"]["input"]
     shown = [c for c in ("site", "sample", *(ds.threshold.dims if ds is not None else ()), column, "status")
