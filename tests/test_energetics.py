@@ -263,6 +263,20 @@ def test_report_renders_in_headless_chromium(tmp_path):
     assert dom.count("<figure") == len(figures) >= 7         # every figure is in the page, inline
     assert dom.count("<svg") >= len(figures) and dom.count('class="scroll"') >= 7   # every table in its box
     assert "http://" not in dom.split("<body")[1].split("<svg")[0] and "<script src" not in dom   # no network
+    # the tables sort in the browser: click the speciation table's temperature header in a frame
+    probe = tmp_path / "sort_probe.html"
+    probe.write_text(
+        '<html><body><iframe src="report.html" onload="var d = this.contentDocument;'
+        " var t = d.querySelectorAll('table.data')[1]; var k = Array.from(t.rows[0].cells)"
+        ".findIndex(function (c) { return c.textContent === 'T_C'; }); t.rows[0].cells[k].click();"
+        " document.body.setAttribute('data-sort', t.rows[0].cells[k].getAttribute('aria-sort'));"
+        " document.body.setAttribute('data-first', t.tBodies[0].rows[0].cells[k].textContent);\">"
+        "</iframe></body></html>")
+    probed = subprocess.run([CHROMIUM, *flags, "--allow-file-access-from-files", "--dump-dom", probe.as_uri()],
+                            check=True, timeout=120, capture_output=True, text=True).stdout
+    coldest = pd.read_csv(tmp_path / "results.csv").drop_duplicates("sample")["T_C"].min()
+    assert 'data-sort="ascending"' in probed
+    assert float(probed.split('data-first="')[1].split('"')[0]) == pytest.approx(coldest, rel=1e-3)
 
 
 def test_report_figures_have_no_overlapping_legends_or_labels():

@@ -126,14 +126,45 @@ class Evaluation:
 def evaluate(samples, reactions, activity_model="bdot", supplies=(), cells=None, units=None, *,
              minimum_energy_kJ=DEFAULT_MINIMUM_ENERGY_KJ, pH_from_charge_balance=False,
              charge_balance_target=None, water=water_state, db=None, body=None):
-    """Evaluate ``reactions`` (NamedReaction) in ``samples`` (a path, DataFrame or SampleSet).
+    """Evaluate reactions in samples: the one path every command takes.
 
-    Speciation with ``activity_model`` (pH from charge balance where asked), in-situ Gibbs energies
-    and energy densities, then power [W/m3] for each of ``supplies`` and the per-cell power demand
-    of ``cells`` (a :class:`~redoxgibbs.energetics.power.CellRequirement`); ``body`` (a
-    :class:`~redoxgibbs.bodies.body.Body`) places depths in its ocean and feeds the body-scale
-    supply models. A sample that cannot be
-    computed carries its reason in ``failure`` and NaN values; the others are computed.
+    Speciation, in-situ Gibbs energies dGr = dG0 + RT ln Q and energy densities, then power for
+    each supply model, the per-cell power demand and growth. A sample that cannot be computed
+    carries its reason in ``failure`` and NaN values; the others are computed.
+
+    Parameters
+    ----------
+    samples : str, path, pandas.DataFrame or SampleSet
+        Sample table (CSV or Excel) or an already-read sample set.
+    reactions : list of NamedReaction
+        Reactions, e.g. from :func:`~redoxgibbs.energetics.catalog.resolve_reactions`.
+    activity_model : {'ideal', 'davies', 'bdot', 'pitzer'}
+        Activity model of the speciation.
+    supplies : sequence of Supply, optional
+        Supply models; power [W/m3] is computed for each.
+    cells : CellRequirement, optional
+        Per-cell power model (default: Tijhuis et al. 1993 maintenance, 10-100 fg C per cell).
+    units : PowerUnits, optional
+        Units of the power columns of the tables (default W/m3 and W/kg).
+    minimum_energy_kJ : float
+        Smallest absolute dGr [kJ per mol of reaction] taken as usable (Hoehler 2004); smaller ones are
+        flagged.
+    pH_from_charge_balance : bool
+        Solve the pH from charge balance where a sample's pH cell is blank.
+    charge_balance_target : array, optional
+        Sum of z m [eq/kg] each sample's charge balance must meet (mixtures keep their alkalinity).
+    water : callable
+        The water-state function (exact IAPWS-95 or a WaterTable).
+    db : SpeciesDatabase, optional
+        Species data (default: the bundled data).
+    body : Body, optional
+        An icy body: places ``depth [km]`` columns in its ocean and feeds body-scale supply models.
+
+    Returns
+    -------
+    Evaluation
+        Speciation, energetics and power; ``to_frame()`` gives the tidy table, ``to_dataset()`` an
+        xarray Dataset (sample x reaction x supply).
     """
     db = default_database() if db is None else db
     s = samples if isinstance(samples, SampleSet) else read_samples(samples, db=db, body=body)

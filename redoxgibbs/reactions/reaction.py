@@ -134,11 +134,30 @@ class ReactionProperties:
 
 
 def reaction_properties(reaction, T, P="psat", *, T_unit="degC", P_unit="bar", db=None):
-    """Standard-state dG0, dH0, dS0, dCp0, dV0 and logK of a reaction at broadcast (T, P).
+    """Standard-state properties of a reaction at broadcast temperatures and pressures.
 
-    ``reaction``: a :class:`Reaction` or its text. ``T``: numbers in ``T_unit`` (default degC),
-    a pint quantity or a string such as ``'300 degC'``. ``P``: numbers in ``P_unit`` (default bar),
-    a quantity, or ``'psat'`` (1.01325 bar up to 100 degC, liquid-vapour saturation above).
+    dG0 = sum nu_i G_i(T, P) over the balanced reaction (apparent standard properties of
+    formation), log10 K = -dG0 / (RT ln 10), and likewise dH0, dS0, dCp0, dV0.
+
+    Parameters
+    ----------
+    reaction : Reaction or str
+        The reaction, e.g. ``"CO2(aq) + 4 H2(aq) = CH4(aq) + 2 H2O(l)"``.
+    T : array_like, pint Quantity or str
+        Temperatures [``T_unit``, default degC], or a quantity / text such as ``'300 degC'``.
+    P : array_like, pint Quantity or 'psat'
+        Pressures [``P_unit``, default bar]; ``'psat'``: 1.01325 bar up to 100 degC, liquid-vapour
+        saturation above.
+    T_unit, P_unit : str
+        Units of plain numbers.
+    db : SpeciesDatabase, optional
+        Species data (default: the bundled data).
+
+    Returns
+    -------
+    ReactionProperties
+        logK, dG0 [J/mol], dH0 [J/mol], dS0 [J/mol/K], dCp0 [J/mol/K], dV0 [cm3/mol] and flags;
+        ``to_frame()`` names the units in its columns.
     """
     rxn = reaction if isinstance(reaction, Reaction) else Reaction(reaction, db=db)
     T_K, P_bar = resolve_states(T, P, T_unit, P_unit)

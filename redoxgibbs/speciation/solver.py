@@ -483,18 +483,36 @@ def _solve_samples(s, totals, system, masters, gas_masters, model, charge_target
 
 def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, db=None,
              charge_balance_target=None, water=water_state):
-    """Speciate a sample table (path, DataFrame or :class:`SampleSet`) at in-situ T and P.
+    """Speciate samples at their in-situ temperature and pressure.
 
-    pH: given at in-situ T; or measured at ``pH T`` and carried to in-situ T, P by re-speciating at
-    constant totals and charge balance; or, when missing and ``pH_from_charge_balance`` is set,
-    solved from charge balance: sum z m = ``charge_balance_target`` [eq/kg water] (default 0; a
-    mixture carries its end-members' imbalance, i.e. their alkalinity). ``water``: the exact
-    water path or a :class:`~redoxgibbs.water.table.WaterTable` for the in-situ states (the
-    states where pH was measured always take the exact path).
+    Mass balances of every measured component and charge balance (or a fixed pH), with the law of
+    mass action for every species built from the components, solved by Newton's method for all
+    samples at once. pH is given at in-situ T; or measured at ``pH T`` and carried to in-situ T, P
+    by re-speciating at constant totals and charge balance; or solved from charge balance.
 
-    Every sample has an outcome: a sample that cannot be computed (a state outside the engine's
-    range, water frozen or vapour, no convergence) keeps NaN values and its reason in
-    ``failure``; the others are computed as usual.
+    Parameters
+    ----------
+    samples : str, path, pandas.DataFrame or SampleSet
+        Sample table (CSV or Excel) or an already-read sample set.
+    activity_model_name : {'ideal', 'davies', 'bdot', 'pitzer'}
+        Activity model (``pitzer`` leaves the ion pairs its parameters carry out of the species).
+    pH_from_charge_balance : bool
+        Where the pH cell is blank, solve pH from sum z m = ``charge_balance_target``.
+    db : SpeciesDatabase, optional
+        Species data (default: the bundled data).
+    charge_balance_target : array, optional
+        Sum of z m [eq per kg of water] per sample (default 0; a mixture carries its end-members'
+        imbalance, i.e. their alkalinity).
+    water : callable
+        The exact water path or a :class:`~redoxgibbs.water.table.WaterTable` for in-situ states.
+
+    Returns
+    -------
+    SpeciationResult
+        Molalities [mol/kg], log10 activity coefficients, ionic strength [mol/kg], in-situ pH, water
+        activity, saturation indices and per-sample flags. A sample that cannot be computed (outside
+        the engine's range, frozen, vapour, no convergence) keeps NaN values and its reason in
+        ``failure``; the others are computed.
     """
     db = default_database() if db is None else db
     s = samples if isinstance(samples, SampleSet) else read_samples(samples, db=db)

@@ -138,12 +138,33 @@ def _formation_block(db, formation, index, T, arrays, flags, properties):
 
 
 def standard_properties(names, T_K, P_bar, db=None, properties=ALL_PROPERTIES, water=water_state):
-    """Standard-state G, H, S, Cp, V of species ``names`` at 1-D arrays ``T_K`` [K], ``P_bar`` [bar].
+    """Standard-state properties of named species at arrays of states.
 
-    States must already be liquid or supercritical water (the water layer refuses others).
-    ``properties`` limits the work to what is asked (the others are returned as None);
-    without "Cp" the water second derivative is skipped. ``water``: the water-state function,
-    the exact IAPWS-95 path or a :class:`~redoxgibbs.water.table.WaterTable`.
+    Each species by its own model: revised HKF (Tanger & Helgeson 1988; Shock et al. 1992), NASA
+    polynomials for gases, Maier-Kelley for minerals, formation reactions (van 't Hoff), and water
+    from IAPWS-95; water is evaluated once per distinct state.
+
+    Parameters
+    ----------
+    names : list of str
+        Species names (canonical or aliases).
+    T_K : array_like
+        Temperatures [K], 1-D.
+    P_bar : array_like
+        Pressures [bar], broadcast against ``T_K``; states must be liquid or supercritical water.
+    db : SpeciesDatabase, optional
+        Species data (default: the bundled data).
+    properties : tuple of str
+        Which of G, H, S, Cp, V to compute (the others are returned as None; without Cp the
+        water second derivative is skipped).
+    water : callable
+        The water-state function: exact IAPWS-95 or a :class:`~redoxgibbs.water.table.WaterTable`.
+
+    Returns
+    -------
+    StandardProperties
+        G, H [J/mol], S, Cp [J/mol/K], V [cm3/mol], each (n_states, n_species), and the validity
+        flags of each state and species.
     """
     db = default_database() if db is None else db
     names = [db.resolve(n) for n in names]
