@@ -1,4 +1,4 @@
-"""A larger fuzz run than the test suite's (tests/test_fuzz.py strategies): counts the outcomes.
+"""A larger fuzz run than the test suite's (tests/interfaces/test_fuzz.py strategies): counts the outcomes.
 
 Every outcome must be a result or one of the project's own errors; the script prints how many of
 each, and the number of tracebacks (any other exception), silent NaN (an undefined dGr with no

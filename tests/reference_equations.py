@@ -21,3 +21,9 @@ def g7_04_henry_constant_bar(gas, T_K, psat_bar):
     Tr, tau = T_K / T_CRIT_K, 1 - T_K / T_CRIT_K
     ln_kh_MPa = np.log(psat_bar / 10) + A / Tr + B * tau**0.355 / Tr + C * Tr**-0.41 * np.exp(tau)
     return np.exp(ln_kh_MPa) * 10
+
+
+# Standard seawater (Millero et al. 2008, Deep-Sea Res. I 55, 50, Table 4), reference salinity
+# 35.16504 g/kg, in mol/kg of solution (Br- folded into Cl-, CO3^2- into the carbonate total)
+SEAWATER = {"Na+": 0.4688626, "Mg^2+": 0.0528171, "Ca^2+": 0.0102821, "K+": 0.0102062,
+            "Cl-": 0.5458696 + 0.0008421, "SO4^2-": 0.0282352, "HCO3-": 0.0017177 + 0.0002390}

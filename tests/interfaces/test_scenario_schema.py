@@ -4,11 +4,11 @@ sites are read on their own (units, species names) and may carry their own suppl
 import textwrap
 
 import pytest
+from scenarios import POOL_SCENARIO
 
 from redoxgibbs.errors import InputError
 from redoxgibbs.interfaces.assess import run_assessment
 from redoxgibbs.interfaces.scenario import load_scenario
-from scenarios import POOL_SCENARIO
 
 BASE = POOL_SCENARIO
 

@@ -14,8 +14,8 @@ import pytest
 from redoxgibbs.energetics.catalog import NamedReaction, catalog
 from redoxgibbs.energetics.insitu import insitu_energetics
 from redoxgibbs.reactions.reaction import Reaction
-from redoxgibbs.species.database import default_database
 from redoxgibbs.speciation.solver import speciate
+from redoxgibbs.species.database import default_database
 
 PARTNERS = {"HCO3-": "CO2(aq)", "CO2(aq)": "HCO3-", "HS-": "H2S(aq)", "H2S(aq)": "HS-",
             "NH4+": "NH3(aq)", "NH3(aq)": "NH4+"}

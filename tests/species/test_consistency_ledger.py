@@ -8,7 +8,7 @@ import numpy as np
 from redoxgibbs.energetics.catalog import catalog
 from redoxgibbs.species.ledger import verification_checks, verification_ledger
 
-ROOT = Path(__file__).resolve().parent.parent
+ROOT = Path(__file__).resolve().parents[2]
 
 
 def _test_functions(path):

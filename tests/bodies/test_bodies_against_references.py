@@ -15,7 +15,7 @@ import numpy as np
 import pandas as pd
 import pytest
 from iapws import IAPWS95
-from test_freezing_against_references import SEAWATER
+from reference_equations import SEAWATER
 
 from redoxgibbs.bodies.body import G_NEWTON, Body, pressure_uniform_density_Pa
 from redoxgibbs.energetics.body_supply import (

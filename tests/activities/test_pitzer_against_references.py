@@ -13,7 +13,7 @@ import jax
 import numpy as np
 import pandas as pd
 import pytest
-from test_freezing_against_references import SEAWATER
+from reference_equations import SEAWATER
 
 from redoxgibbs.activities.models import activity_model
 from redoxgibbs.speciation.solver import speciate

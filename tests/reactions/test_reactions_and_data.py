@@ -8,8 +8,13 @@ import numpy as np
 import pandas as pd
 import pytest
 
-from redoxgibbs.errors import (InputError, OutOfValidityError, SpeciesDataError,
-                               UnbalancedReactionError, UnknownSpeciesError)
+from redoxgibbs.errors import (
+    InputError,
+    OutOfValidityError,
+    SpeciesDataError,
+    UnbalancedReactionError,
+    UnknownSpeciesError,
+)
 from redoxgibbs.interfaces.cli import main
 from redoxgibbs.reactions.reaction import Reaction, reaction_properties
 from redoxgibbs.species.database import load_species_data

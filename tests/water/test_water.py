@@ -8,10 +8,18 @@ from iapws._iapws import _Dielectric
 from redoxgibbs.errors import OutOfValidityError
 from redoxgibbs.water.born import born_functions, debye_hueckel_A, debye_hueckel_B
 from redoxgibbs.water.dielectric import dielectric_along_TP
-from redoxgibbs.water.iapws95 import psat_convention_bar, saturation_pressure_bar, water_state
-from redoxgibbs.water.melting import (melting_pressure_ice_Ih, melting_pressure_ice_III,
-                                      melting_pressure_ice_V, melting_pressure_ice_VI,
-                                      melting_temperature)
+from redoxgibbs.water.iapws95 import (
+    psat_convention_bar,
+    saturation_pressure_bar,
+    water_state,
+)
+from redoxgibbs.water.melting import (
+    melting_pressure_ice_Ih,
+    melting_pressure_ice_III,
+    melting_pressure_ice_V,
+    melting_pressure_ice_VI,
+    melting_temperature,
+)
 
 STATES = [(273.16, 1.0), (298.15, 1.0), (373.15, 10.0), (473.15, 50.0), (573.15, 500.0),
           (650.0, 300.0), (673.15, 500.0), (873.15, 1000.0), (1273.15, 5000.0), (298.15, 5000.0),

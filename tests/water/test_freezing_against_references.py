@@ -15,6 +15,7 @@ import numpy as np
 import pandas as pd
 import pytest
 from iapws._iapws import _Ice
+from reference_equations import SEAWATER
 
 from redoxgibbs.speciation.solver import speciate
 from redoxgibbs.water.ice import freezing_temperature, ice_ih_gibbs
@@ -40,10 +41,6 @@ def test_pure_water_freezes_on_the_r14_08_melting_curve():
     np.testing.assert_allclose(T, melting_temperature(P_bar * 1e5), atol=2e-3)
 
 
-# Standard seawater (Millero et al. 2008, Deep-Sea Res. I 55, 50, Table 4), reference salinity
-# 35.16504 g/kg, in mol/kg of solution (Br- folded into Cl-, CO3^2- into the carbonate total)
-SEAWATER = {"Na+": 0.4688626, "Mg^2+": 0.0528171, "Ca^2+": 0.0102821, "K+": 0.0102062,
-            "Cl-": 0.5458696 + 0.0008421, "SO4^2-": 0.0282352, "HCO3-": 0.0017177 + 0.0002390}
 
 
 def _seawater(T_C, P_bar):

@@ -10,13 +10,13 @@ import pandas as pd
 import pytest
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
+from scenarios import POOL_SCENARIO
 
 from redoxgibbs.energetics.catalog import catalog
 from redoxgibbs.errors import RedoxGibbsError
 from redoxgibbs.pipeline.evaluate import evaluate
 from redoxgibbs.reactions.reaction import Reaction
 from redoxgibbs.speciation.samples import read_samples
-from scenarios import POOL_SCENARIO
 
 COLUMNS = ["Na+ [mmol/kg]", "Cl- [mmol/kg]", "HCO3- [mmol/kg]", "CO2(aq) [umol/kg]", "HS- [umol/kg]",
            "H2(aq) [umol/kg]", "O2(aq) [umol/kg]", "CH4(aq) [umol/kg]", "SO4^2- [mmol/kg]", "Fe^2+ [umol/kg]",

@@ -1,8 +1,9 @@
 """Monte Carlo, grids, chunked Parquet output, resumption and dask runs."""
 
+from statistics import NormalDist
+
 import numpy as np
 import pytest
-from statistics import NormalDist
 
 from redoxgibbs.sweeps.runner import Distribution, SweepSpec, load_results, run_sweep
 
@@ -75,7 +76,7 @@ def test_seeded_and_reproducible(tmp_path):
 
 
 def test_interrupted_sweep_resumes_from_chunks_on_disk(tmp_path, monkeypatch):
-    import redoxgibbs.sweeps.runner as runner
+    from redoxgibbs.sweeps import runner
 
     spec = _spec(n=1500, chunk=500)
     full = _run(spec, tmp_path / "full")

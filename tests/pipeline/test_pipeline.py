@@ -67,14 +67,14 @@ def test_every_flag_is_named_once_and_documented():
     props = standard_properties(["HCO3-", "CaSO4(aq)"], np.array([298.15]), np.array([1.0]))
     assert set(props.flags) <= set(FLAGS)
     assert ionic_strength_flag("MODEL") in FLAGS
-    guide = (Path(__file__).resolve().parent.parent / "DEVELOPERS.md").read_text()
+    guide = (Path(__file__).resolve().parents[2] / "DEVELOPERS.md").read_text()
     for name in FLAGS:
         assert f"`{name}`" in guide, name
 
 
 def test_standard_states_are_evaluated_once(monkeypatch):
-    import redoxgibbs.energetics.insitu as insitu
-    import redoxgibbs.speciation.solver as solver
+    from redoxgibbs.energetics import insitu
+    from redoxgibbs.speciation import solver
     from redoxgibbs.species.properties import standard_properties
 
     calls = []
