@@ -88,10 +88,16 @@ def _seawater(T_C, P_bar):
     return frame
 
 
-@pytest.mark.parametrize("T_C", [0.0, 10.0, 25.0])
-def test_seawater_water_activity_against_teos10(T_C):
-    result = speciate(_seawater([T_C], [1.01325]), "pitzer")
-    SA, R, M_w = 35.16504, 8.314462618, 18.015268       # g/kg; J/mol/K; g/mol (TEOS-10 values)
+@pytest.mark.parametrize("T_C,SA", [(0.0, 35.16504), (10.0, 35.16504), (25.0, 35.16504), (60.0, 35.16504),
+                                    (80.0, 35.16504), (25.0, 70.33), (25.0, 105.5), (5.0, 105.5)])
+def test_seawater_water_activity_against_teos10(T_C, SA):
+    # to 80 C and three times the salinity of seawater (TEOS-10's Gibbs function holds to 80 C at
+    # 1 atm, and to 120 g/kg): the composition scales with SA (the reference composition)
+    frame = _seawater([T_C], [1.01325])
+    for sp, m in SEAWATER.items():
+        frame[f"{sp} [mol/kg-solution]"] = m * SA / 35.16504
+    result = speciate(frame, "pitzer")
+    R, M_w = 8.314462618, 18.015268       # J/mol/K; g/mol (TEOS-10 values)
     mu = gsw.chem_potential_water_t_exact(SA, T_C, 0.0) - gsw.chem_potential_water_t_exact(0.0, T_C, 0.0)
     log10_aw = mu * M_w / (R * (T_C + 273.15)) / np.log(10)     # mu in J/g
     # 0.5 %: TEOS-10's stated uncertainty of the osmotic coefficient is about 0.1 %; the
