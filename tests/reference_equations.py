@@ -27,3 +27,15 @@ def g7_04_henry_constant_bar(gas, T_K, psat_bar):
 # 35.16504 g/kg, in mol/kg of solution (Br- folded into Cl-, CO3^2- into the carbonate total)
 SEAWATER = {"Na+": 0.4688626, "Mg^2+": 0.0528171, "Ca^2+": 0.0102821, "K+": 0.0102062,
             "Cl-": 0.5458696 + 0.0008421, "SO4^2-": 0.0282352, "HCO3-": 0.0017177 + 0.0002390}
+
+
+def seawater_samples(T_C, P_bar, SA=35.16504):
+    """A sample table of reference-composition seawater at absolute salinity SA [g/kg] (its
+    composition scales with SA), one row per (T [degC], P [bar]), pH 8.1."""
+    import pandas as pd
+
+    frame = pd.DataFrame({"sample": [f"seawater {t} C" for t in T_C], "T [degC]": T_C, "P [bar]": P_bar,
+                          "pH": 8.1})
+    for sp, m in SEAWATER.items():
+        frame[f"{sp} [mol/kg-solution]"] = m * SA / 35.16504
+    return frame

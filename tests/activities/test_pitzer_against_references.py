@@ -2,7 +2,7 @@
 
 - mean activity and osmotic coefficients at 25 C against Robinson & Stokes (1959) (from memory);
 - freezing points of NaCl solutions against the CRC Handbook (from memory);
-- water activity and freezing point of seawater against TEOS-10 (gsw);
+- water activity of seawater against TEOS-10 (gsw; its freezing point: tests/water);
 - the implementation against the pytzer package (a general-purpose Pitzer library: same published
   parameter sets, its own code), from 0 to 200 C. This checks the equations, not the data; the
   checks above check the data.
@@ -11,9 +11,8 @@
 import gsw
 import jax
 import numpy as np
-import pandas as pd
 import pytest
-from reference_equations import SEAWATER
+from reference_equations import seawater_samples
 
 from redoxgibbs.activities.models import activity_model
 from redoxgibbs.speciation.solver import speciate
@@ -80,38 +79,18 @@ def test_freezing_points_of_nacl_solutions_against_the_handbook():
     np.testing.assert_allclose(T_C, list(NACL_FREEZING_C.values()), atol=0.1)
 
 
-def _seawater(T_C, P_bar):
-    frame = pd.DataFrame({"sample": [f"seawater {t} C" for t in T_C], "T [degC]": T_C, "P [bar]": P_bar,
-                          "pH": 8.1})
-    for sp, m in SEAWATER.items():
-        frame[f"{sp} [mol/kg-solution]"] = m
-    return frame
-
-
 @pytest.mark.parametrize("T_C,SA", [(0.0, 35.16504), (10.0, 35.16504), (25.0, 35.16504), (60.0, 35.16504),
                                     (80.0, 35.16504), (25.0, 70.33), (25.0, 105.5), (5.0, 105.5)])
 def test_seawater_water_activity_against_teos10(T_C, SA):
     # to 80 C and three times the salinity of seawater (TEOS-10's Gibbs function holds to 80 C at
     # 1 atm, and to 120 g/kg): the composition scales with SA (the reference composition)
-    frame = _seawater([T_C], [1.01325])
-    for sp, m in SEAWATER.items():
-        frame[f"{sp} [mol/kg-solution]"] = m * SA / 35.16504
-    result = speciate(frame, "pitzer")
+    result = speciate(seawater_samples([T_C], [1.01325], SA), "pitzer")
     R, M_w = 8.314462618, 18.015268       # J/mol/K; g/mol (TEOS-10 values)
     mu = gsw.chem_potential_water_t_exact(SA, T_C, 0.0) - gsw.chem_potential_water_t_exact(0.0, T_C, 0.0)
     log10_aw = mu * M_w / (R * (T_C + 273.15)) / np.log(10)     # mu in J/g
     # 0.5 %: TEOS-10's stated uncertainty of the osmotic coefficient is about 0.1 %; the
     # reference composition is lumped here (Br- with Cl-, minor ions left out)
     assert float(result.log10_water_activity[0]) == pytest.approx(log10_aw, rel=0.005)
-
-
-@pytest.mark.parametrize("p_dbar", [0.0, 100.0, 1000.0])
-def test_seawater_freezing_point_against_teos10(p_dbar):
-    P_bar = 1.01325 + p_dbar / 10
-    result = speciate(_seawater([-1.0], [P_bar]), "pitzer")
-    expected = gsw.t_freezing(35.16504, p_dbar, 0.0)    # air-free seawater
-    # 0.01 K: half a per cent of the 1.9 K depression
-    assert float(result.freezing_point_K()[0]) - 273.15 == pytest.approx(expected, abs=0.01)
 
 
 _PYTZER_NAMES = {"Na": "Na+", "K": "K+", "Ca": "Ca^2+", "Mg": "Mg^2+", "Cl": "Cl-", "SO4": "SO4^2-"}

@@ -15,7 +15,7 @@ import numpy as np
 import pandas as pd
 import pytest
 from iapws._iapws import _Ice
-from reference_equations import SEAWATER
+from reference_equations import seawater_samples
 
 from redoxgibbs.speciation.solver import speciate
 from redoxgibbs.water.ice import freezing_temperature, ice_ih_gibbs
@@ -43,26 +43,22 @@ def test_pure_water_freezes_on_the_r14_08_melting_curve():
 
 
 
-def _seawater(T_C, P_bar):
-    frame = pd.DataFrame({"sample": [f"seawater {t} C" for t in T_C], "T [degC]": T_C, "P [bar]": P_bar,
-                          "pH": 8.1})
-    for sp, m in SEAWATER.items():
-        frame[f"{sp} [mol/kg-solution]"] = m
-    return frame
 
 
+# tolerance per model: B-dot's osmotic coefficient in seawater is good to 2-3 % of a 1.9 K
+# depression (0.05 K); Pitzer's to about half a per cent (0.01 K)
+@pytest.mark.parametrize("model,tolerance_K", [("bdot", 0.05), ("pitzer", 0.01)])
 @pytest.mark.parametrize("p_dbar", [0.0, 100.0, 1000.0])
-def test_seawater_freezing_point_against_teos10(p_dbar):
+def test_seawater_freezing_point_against_teos10(p_dbar, model, tolerance_K):
     P_bar = 1.01325 + p_dbar / 10
-    result = speciate(_seawater([-1.0], [P_bar]), "bdot")
+    result = speciate(seawater_samples([-1.0], [P_bar]), model)
     expected = gsw.t_freezing(35.16504, p_dbar, 0.0)    # air-free seawater
-    # 0.05 K: B-dot's osmotic coefficient in seawater is good to 2-3 % of a 1.9 K depression
-    assert float(result.freezing_point_K()[0]) - 273.15 == pytest.approx(expected, abs=0.05)
+    assert float(result.freezing_point_K()[0]) - 273.15 == pytest.approx(expected, abs=tolerance_K)
 
 
 def test_seawater_is_liquid_at_minus_1_9_and_frozen_at_minus_2_5():
     # one table: the frozen sample is reported in its own row, the other is computed
-    result = speciate(_seawater([-1.9, -2.5], [1.0, 1.0]), "bdot")
+    result = speciate(seawater_samples([-1.9, -2.5], [1.0, 1.0]), "bdot")
     assert result.failure[0] == "" and np.isfinite(result.pH[0])
     assert result.failure[1].startswith("frozen") and np.isnan(result.pH[1])
     summary = result.summary_frame()
