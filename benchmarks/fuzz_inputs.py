@@ -18,6 +18,7 @@ from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
 sys.path.insert(0, str(Path(__file__).resolve().parent.parent / "tests"))
+sys.path.insert(0, str(Path(__file__).resolve().parent.parent / "tests" / "interfaces"))
 from test_fuzz import REACTIONS, sample_tables  # noqa: E402
 
 from redoxgibbs.errors import RedoxGibbsError  # noqa: E402

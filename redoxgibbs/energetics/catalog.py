@@ -79,7 +79,18 @@ def _packaged_table(filename):
 
 
 def catalog(db=None):
-    """The named reactions, each balanced (a list of :class:`NamedReaction`)."""
+    """The catalog of named catabolic reactions (``energetics/catalog.csv``), each balanced.
+
+    Parameters
+    ----------
+    db : SpeciesDatabase, optional
+        Species data (default: the bundled data).
+
+    Returns
+    -------
+    list of NamedReaction
+        Name, balanced reaction and electrons moved per mole of reaction (formal oxidation states).
+    """
     return list(_catalog_for(default_database() if db is None else db))
 
 
@@ -151,8 +162,18 @@ def _smallest_whole(coeffs):
 def enumerate_reactions(donors=None, acceptors=None, db=None):
     """Every donor x acceptor reaction from the redox couples, in smallest whole coefficients.
 
-    ``donors`` / ``acceptors``: couple names (default: all). A donor couple runs as an oxidation,
-    an acceptor couple as a reduction; pairs of a couple with itself are skipped.
+    Parameters
+    ----------
+    donors, acceptors : list of str, optional
+        Couple names of ``energetics/redox_couples.csv`` (default: all). A donor couple runs as an
+        oxidation, an acceptor couple as a reduction; pairs of a couple with itself are skipped.
+    db : SpeciesDatabase, optional
+        Species data (default: the bundled data).
+
+    Returns
+    -------
+    list of NamedReaction
+        Named 'DONOR -> ACCEPTOR', with the half-reactions' electron count.
     """
     db = default_database() if db is None else db
     couples = redox_couples(db)
@@ -180,7 +201,20 @@ def enumerate_reactions(donors=None, acceptors=None, db=None):
 
 
 def resolve_reactions(items, db=None):
-    """Catalog names or reaction strings to :class:`NamedReaction` objects."""
+    """Reactions from catalog names or reaction strings.
+
+    Parameters
+    ----------
+    items : list of str
+        Catalog names (see ``redoxgibbs reactions``) or reactions such as
+        ``"CO2(aq) + 4 H2(aq) = CH4(aq) + 2 H2O(l)"`` (checked for element and charge balance).
+    db : SpeciesDatabase, optional
+        Species data (default: the bundled data).
+
+    Returns
+    -------
+    list of NamedReaction
+    """
     db = default_database() if db is None else db
     out = []
     for item in items:

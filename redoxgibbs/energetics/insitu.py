@@ -214,10 +214,33 @@ def _activity_columns(result, names, db, gas_fugacity):
 
 def insitu_energetics(result, reactions, db=None, minimum_energy_kJ=DEFAULT_MINIMUM_ENERGY_KJ,
                       gas_fugacity=None, water=water_state):
-    """Gibbs energies and energy densities of ``reactions`` (NamedReaction) in speciated samples.
+    """In-situ Gibbs energies and energy densities of reactions in speciated samples.
 
-    Energy per kg of solution and per litre use the speciation's water content and in-situ fluid
-    density (:class:`~redoxgibbs.speciation.solver.SpeciationResult`)."""
+    dGr = dG0 + RT ln Q with the activities of the speciation; energy density = -dGr times the
+    amount of reaction the limiting pool allows (total of each reactant's pool over its
+    coefficient), per kg of water, per kg of solution and per litre.
+
+    Parameters
+    ----------
+    result : SpeciationResult
+        Speciated samples (:func:`~redoxgibbs.speciation.solver.speciate`).
+    reactions : list of NamedReaction
+        The reactions.
+    db : SpeciesDatabase, optional
+        Species data (default: the bundled data).
+    minimum_energy_kJ : float
+        Smallest absolute dGr [kJ per mol of reaction] taken as usable (Hoehler 2004).
+    gas_fugacity : dict, optional
+        Gas species to fugacity [bar] per sample, for reactions written with gases.
+    water : callable
+        The water-state function (exact IAPWS-95 or a WaterTable).
+
+    Returns
+    -------
+    InsituEnergetics
+        dG0, log10 Q, dGr [J/mol] (samples x reactions), energy densities [J/kg], limiting species,
+        flags; ``to_frame()`` names the units in its columns.
+    """
     db = default_database() if db is None else db
     names = sorted({s for x in reactions for s in x.reaction.species})
     nu = np.zeros((len(names), len(reactions)))

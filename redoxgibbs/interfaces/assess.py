@@ -67,7 +67,20 @@ def _power_frames(scenario, ev):
 
 
 def run_assessment(scenario_path, quiet=False):
-    """Run a scenario file; returns an :class:`Assessment` (nothing is written here)."""
+    """Run the main job of a scenario: evaluation, habitability envelope, mixing, depth profile and
+    thresholds (nothing is written here; see :func:`~redoxgibbs.interfaces.report.write_outputs`).
+
+    Parameters
+    ----------
+    scenario_path : str or path
+        The scenario file (TOML).
+    quiet : bool
+        No progress lines on standard error.
+
+    Returns
+    -------
+    Assessment
+    """
     db = default_database()
     scenario = load_scenario(scenario_path)
     steps = 4 if scenario.mixing else 3

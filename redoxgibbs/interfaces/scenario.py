@@ -169,8 +169,21 @@ def _read_toml(path):
 
 
 def load_scenario(path):
-    """Read a scenario TOML file, check it against the schema (interfaces/schema.py) and read
-    each site's samples on its own."""
+    """Read a scenario file.
+
+    Parameters
+    ----------
+    path : str or path
+        A scenario (TOML); ``redoxgibbs scenario-keys`` lists every key. It is checked against the
+        schema (``interfaces/schema.py``), and each site's samples are read on their own (their
+        own units and species names; a workbook of several sheets gives one site per sheet).
+
+    Returns
+    -------
+    Scenario
+        Sites, samples, reactions, activity model, supply and cell models, body, limits and the
+        sections for mixing, sweeps and thresholds.
+    """
     path = Path(path)
     data = _read_toml(path)
     check_scenario(data)

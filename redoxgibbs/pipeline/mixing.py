@@ -34,10 +34,35 @@ def mixtures(samples, hydrothermal, seawater, fractions, activity_model_name, db
 
 def mixing_energetics(samples, hydrothermal, seawater, reactions, fractions=None, temperatures_C=None,
                       rule="enthalpy", activity_model_name="bdot", db=None):
-    """A long table (mixture x reaction) of energetics along a mixing path.
+    """Energetics along the mixing path of a hydrothermal fluid into a cold end-member.
 
-    Give either ``fractions`` (mass fractions of the hydrothermal fluid) or ``temperatures_C``
-    (mixture temperatures, converted to fractions by the same ``rule``).
+    Totals and alkalinity mix by mass; the temperature by enthalpy conservation (IAPWS-95) or
+    linearly; each mixture's pH from its charge balance.
+
+    Parameters
+    ----------
+    samples : str, path, pandas.DataFrame or SampleSet
+        Samples holding both end-members.
+    hydrothermal, seawater : str
+        Sample names of the hot and the cold end-member.
+    reactions : list of NamedReaction
+        The reactions.
+    fractions : list of float, optional
+        Mass fractions of the hydrothermal fluid (or give ``temperatures_C``).
+    temperatures_C : list of float, optional
+        Mixture temperatures [degC], converted to fractions by the same ``rule``.
+    rule : {'enthalpy', 'linear'}
+        How a mixture takes its temperature.
+    activity_model_name : str
+        Activity model.
+    db : SpeciesDatabase, optional
+        Species data.
+
+    Returns
+    -------
+    pandas.DataFrame
+        One row per mixture x reaction: fraction, T [degC], in-situ pH, dGr [kJ/mol], energy per kg
+        of mixed fluid and per kg of hydrothermal fluid [J/kg], failure.
     """
     db = default_database() if db is None else db
     s = samples if isinstance(samples, SampleSet) else read_samples(samples, db=db)

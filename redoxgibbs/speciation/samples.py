@@ -288,14 +288,31 @@ def _sample_names(column):
 
 
 def read_samples(source, db=None, below_detection="not-measured", body=None):
-    """Read a sample table (CSV path or DataFrame) into a :class:`SampleSet`, validating each cell.
+    """Read a sample table into a :class:`SampleSet`, validating each cell.
 
-    ``below_detection``: how cells reported below the detection limit ('<0.1', 'bdl', 'nd') are
-    taken: 'not-measured' (the default), 'detection-limit' or 'half-limit'; each is noted in the
-    sample's flags. With a ``body`` (:class:`~redoxgibbs.bodies.body.Body`), positions in its
-    ocean (``depth [km]`` below the ice-ocean interface, or ``above seafloor [km]``) stand for
-    ``P [bar]``, and a temperature cell reading ``freezing`` (or left blank at depth 0) is the
-    fluid's own freezing point at its pressure, settled by the speciation.
+    Amounts are converted once, here, to molalities [mol per kg of water] (per-litre and per-kg-of-
+    solution units through the sample's density, measured or estimated and flagged).
+
+    Parameters
+    ----------
+    source : str, path or pandas.DataFrame
+        A CSV file, an Excel workbook (.xlsx; its sheets one after the other) or a DataFrame with
+        columns ``sample``, ``T [degC]``, ``P [bar]`` (or ``psat``), ``pH`` and ``SPECIES [UNIT]``.
+    db : SpeciesDatabase, optional
+        Species data (default: the bundled data).
+    below_detection : {'not-measured', 'detection-limit', 'half-limit'}
+        How cells reported below the detection limit ('<0.1', 'bdl', 'nd') are taken; each is
+        noted in the sample's flags.
+    body : Body, optional
+        An icy body: positions in its ocean (``depth [km]`` below the ice-ocean interface, or
+        ``above seafloor [km]``) stand for ``P [bar]``, and a temperature cell reading ``freezing``
+        (or blank at depth 0) is the fluid's own freezing point, settled by the speciation.
+
+    Returns
+    -------
+    SampleSet
+        The samples as arrays: T [K], P [bar], pH, totals [mol/kg], gas fugacities [bar], flags and,
+        per sample, the reason it cannot be computed ('' where it can).
     """
     db = default_database() if db is None else db
     if isinstance(source, pd.DataFrame):

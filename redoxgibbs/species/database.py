@@ -357,5 +357,12 @@ def load_species_data(extra_files=(), check=True):
 
 @functools.lru_cache(maxsize=1)
 def default_database():
-    """The bundled species data, loaded and checked once."""
+    """The bundled species data (``species_data/``), loaded and checked once.
+
+    Returns
+    -------
+    SpeciesDatabase
+        Every species record (its model, parameters, source and whether entered from memory); the
+        loader's checks (G, H, S consistency, Cp and V at 25 C, NASA data) have passed.
+    """
     return load_species_data()

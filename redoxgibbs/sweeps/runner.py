@@ -343,7 +343,21 @@ def _chunk_paths(out_dir):
 
 
 def load_results(out_dir, columns=None):
-    """The per-draw table of a sweep folder (all chunks, in draw order)."""
+    """The per-draw table of a sweep folder.
+
+    Parameters
+    ----------
+    out_dir : str or path
+        The sweep's folder (Parquet chunks and manifest).
+    columns : list of str, optional
+        Read only these columns.
+
+    Returns
+    -------
+    pandas.DataFrame
+        One row per draw (all chunks, in draw order): the drawn inputs, dGr [kJ/mol], energy
+        densities [J/kg], power and cells per supply model, flags and failures.
+    """
     # chunk files sort by index and hold their draws in order, so concatenation is in draw order
     frame = pd.concat([pd.read_parquet(p, columns=columns) for p in _chunk_paths(out_dir)], ignore_index=True)
     if "draw" in frame and not frame["draw"].is_monotonic_increasing:
