@@ -370,6 +370,9 @@ def main(argv=None):
     except RedoxGibbsError as err:
         print(f"redoxgibbs: error: {err}", file=sys.stderr)
         return 2
+    except BrokenPipeError:   # output piped into a reader that stopped early (e.g. head): before OSError
+        sys.stdout = open(os.devnull, "w")  # noqa: SIM115 (stays open for the interpreter's final flush)
+        return 0
     except OSError as err:   # output folder or file that cannot be written (or read)
         where = f" {err.filename}" if err.filename else ""
         print(f"redoxgibbs: error: cannot use{where}: {err.strerror or err}; choose another path", file=sys.stderr)
@@ -378,9 +381,6 @@ def main(argv=None):
         print("redoxgibbs: interrupted; nothing half-written is kept (a sweep resumes from its "
               "finished chunks)", file=sys.stderr)
         return 130
-    except BrokenPipeError:   # output piped into a reader that stopped early (e.g. head)
-        sys.stdout = open(os.devnull, "w")
-        return 0
 
 
 if __name__ == "__main__":
