@@ -159,13 +159,11 @@ def _reactions(args):
 
 
 def _ledger(args):
-    from ..species.ledger import verification_ledger
+    from ..species.ledger import ledger_words, verification_ledger
 
     frame = verification_ledger(args.species or None)
     if not _machine_output(frame, args.format):
-        for row in frame.itertuples():
-            memory = "entered from memory" if row.entered_from_memory else "from an outside table"
-            reach = "no outside check yet" if np.isnan(row.checked_to_T_C) else f"checked to {row.checked_to_T_C:g} C"
+        for row, memory, reach in zip(frame.itertuples(), *ledger_words(frame)):
             print(f"{row.species} ({row.model}; {memory}; {reach})\n  source: {row.source}\n"
                   f"  checks: {row.outside_checks}\n")
     return 0

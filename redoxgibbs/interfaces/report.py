@@ -7,10 +7,9 @@ import io
 from pathlib import Path
 
 import matplotlib.pyplot as plt
-import numpy as np
 import pandas as pd
 
-from ..species.ledger import verification_ledger
+from ..species.ledger import ledger_words, verification_ledger
 from ..sweeps.runner import write_netcdf
 from .figures import (
     energy_density_figure,
@@ -84,9 +83,7 @@ def _sources(assessment):
     used = sorted({s for x in assessment.scenario.reactions for s in x.reaction.species}
                   | set(assessment.speciation.species))
     ledger = verification_ledger(used)
-    entered = np.where(ledger["entered_from_memory"], "values recalled from memory, held by the checks",
-                       "values copied from an outside table")
-    reach = ledger["checked_to_T_C"].map(lambda t: "no outside check yet" if np.isnan(t) else f"checked to {t:g} C")
+    entered, reach = ledger_words(ledger)
     return pd.DataFrame({"species": ledger["species"], "model": ledger["model"], "source": ledger["source"],
                          "outside checks passed (tolerance)": ledger["outside_checks"],
                          "reach": reach, "how entered": entered})

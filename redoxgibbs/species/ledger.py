@@ -7,13 +7,14 @@ the highest temperature of its checks.
 """
 
 import functools
+import math
 from importlib import resources
 
 import pandas as pd
 
 from .database import default_database
 
-__all__ = ["verification_checks", "verification_ledger"]
+__all__ = ["ledger_words", "verification_checks", "verification_ledger"]
 
 
 @functools.lru_cache(maxsize=1)
@@ -52,3 +53,12 @@ def verification_ledger(names=None, db=None):
             "checked_to_T_C": float(mine["T_max_C"].max()) if len(mine) else float("nan"),
             "outside_checks": "; ".join(_describe(c) for c in mine.itertuples()) or "none yet"})
     return pd.DataFrame(rows)
+
+
+def ledger_words(ledger):
+    """(how entered, reach) per ledger row as words, the one wording every output shows:
+    'recalled from memory' or 'copied from an outside table'; 'checked to T C' or 'no outside
+    check yet'."""
+    entered = ["recalled from memory" if m else "copied from an outside table" for m in ledger["entered_from_memory"]]
+    reach = ["no outside check yet" if math.isnan(t) else f"checked to {t:g} C" for t in ledger["checked_to_T_C"]]
+    return entered, reach
