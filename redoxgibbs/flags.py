@@ -8,9 +8,20 @@ their freezing point) are not flags: those samples carry a ``failure`` instead.
 
 import numpy as np
 
-__all__ = ["FLAGS", "join_flags", "LOW_DENSITY", "BELOW_0C", "OUTSIDE_FORMATION_RANGE",
-           "FORMATION_ENTHALPY_MISSING", "NEAR_CRITICAL", "ALKALINITY_NOT_USED", "T_AT_FREEZING",
-           "ionic_strength_flag", "parameter_temperature_flag"]
+__all__ = [
+    "ALKALINITY_NOT_USED",
+    "BELOW_0C",
+    "FLAGS",
+    "FORMATION_ENTHALPY_MISSING",
+    "LOW_DENSITY",
+    "NEAR_CRITICAL",
+    "OUTSIDE_FORMATION_RANGE",
+    "T_AT_FREEZING",
+    "UNPARAMETERIZED_IONS",
+    "ionic_strength_flag",
+    "join_flags",
+    "parameter_temperature_flag",
+]
 
 LOW_DENSITY = "water_density_below_0.35_g_cm3"
 BELOW_0C = "below_0C_extrapolated"
@@ -19,6 +30,7 @@ FORMATION_ENTHALPY_MISSING = "formation_enthalpy_missing"
 NEAR_CRITICAL = "near_critical_point"
 ALKALINITY_NOT_USED = "alkalinity_not_used"
 T_AT_FREEZING = "T_at_freezing_point"
+UNPARAMETERIZED_IONS = "pitzer_ions_without_parameters"
 
 
 def join_flags(a, b):
@@ -56,6 +68,8 @@ FLAGS = {
                    "capacities of aqueous species diverge (Gibbs energies stay finite)",
     ALKALINITY_NOT_USED: "an alkalinity was given with a pH: the pH is used, the alkalinity only where "
                          "the pH is blank",
+    UNPARAMETERIZED_IONS: "ions without Pitzer parameters (Fe2+, NH4+, acetate ...) carry more than 1 % of the "
+                          "ionic strength: they get only the Debye-Hueckel and mixing terms of the Pitzer model",
     T_AT_FREEZING: "the temperature is the fluid's own freezing point at its pressure (a 'freezing' cell, or a "
                    "blank one at a body's ice-ocean interface), from its water activity",
     "below_detection:SPECIES": "the species' cell was reported below the detection limit and taken by "

@@ -167,9 +167,10 @@ class ActivityModel:
         return log10_water_activity_extended_dh(molality, charges, ion_sizes_angstrom(names, charges), I,
                                                 A, B, bdot_helgeson_1969(T_K) * molality[:, ions].sum(axis=1))
 
-    def outside_temperature_range(self, names, charges, molality, T_K):
-        """These models state no per-parameter temperature ranges: nothing is flagged (n,)."""
-        return np.zeros(molality.shape[0], bool)
+    def validity_flags(self, names, charges, molality, T_K):
+        """Per sample (n,), flags beyond the ionic-strength limit: none for these models (their
+        validity is stated in ionic strength alone)."""
+        return np.full(molality.shape[0], "", dtype=object)
 
     def at(self, names, charges, T_K, A, B):
         """The model at fixed states (n,): its ``activities(molality, rows)`` gives log10 gamma and

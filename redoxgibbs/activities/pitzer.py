@@ -25,6 +25,7 @@ import pandas as pd
 
 from ..constants import T_REF_K
 from ..errors import InputError
+from ..flags import UNPARAMETERIZED_IONS, join_flags, parameter_temperature_flag
 from ..water.iapws95 import M_WATER_KG_PER_MOL as M_WATER_KG
 from .neutral import log10_gamma_neutral
 
@@ -47,6 +48,9 @@ B_PITZER = 1.2              # kg^0.5 mol^-0.5, Pitzer (1973), common to every io
 ALPHA2 = 12.0               # kg^0.5 mol^-0.5, Harvie et al. (1984) for pairs with a beta2 term
 T_REF_PITZER_K = T_REF_K       # the reference temperature of the about25 and PP86 forms
 SIGNIFICANT_MOLALITY = 0.01  # mol/kg: a pair outside its parameters' range is flagged above this
+#: Share of the ionic strength that ions without Pitzer parameters may carry before the sample is
+#: flagged (they get only the Debye-Hueckel and mixing terms)
+UNPARAMETERIZED_SHARE = 0.01
 # Pitzer (1975) eq. 47: J(x) = x / (4 + C1 x^-C2 exp(-C3 x^C4))
 _J_C = (4.581, 0.7237, 0.0120, 0.528)
 
@@ -244,7 +248,7 @@ class PitzerModel:
     """The Pitzer activity model (Harvie, Moller & Weare 1984 form), selectable as 'pitzer'.
 
     ``I_max`` [mol/kg]: 6, the range of the NaCl parameters (Moller 1988); each parameter row has
-    its own temperature range, checked per sample (:meth:`outside_temperature_range`).
+    its own temperature range, checked per sample (:meth:`validity_flags`).
     """
 
     name: str = "pitzer"
@@ -269,15 +273,24 @@ class PitzerModel:
         return _PitzerAtStates(terms, np.asarray(charges, float), tuple(names), T, values, pair_outside,
                                debye_hueckel_aphi_moller_1988(T))
 
-    def outside_temperature_range(self, names, charges, molality, T_K):
-        """Samples (n,) where a cation-anion pair, both ions at SIGNIFICANT_MOLALITY or more,
-        takes parameters outside the temperature range their source states."""
+    def validity_flags(self, names, charges, molality, T_K):
+        """Per sample (n,), the model's flags: a cation-anion pair, both ions at
+        SIGNIFICANT_MOLALITY or more, outside the temperatures its parameters' source states
+        (``parameter_temperature_flag``); ions without any cation-anion parameter carrying more
+        than UNPARAMETERIZED_SHARE of the ionic strength (``UNPARAMETERIZED_IONS``)."""
         state = self.at(names, charges, T_K)
         pairs = state.terms.pairs
-        if not len(pairs):
-            return np.zeros(molality.shape[0], bool)
-        big = (molality[:, pairs[:, 0]] >= SIGNIFICANT_MOLALITY) & (molality[:, pairs[:, 1]] >= SIGNIFICANT_MOLALITY)
-        return (state.pair_outside & big).any(axis=1)
+        z2 = np.asarray(charges, float) ** 2
+        n = molality.shape[0]
+        outside = np.zeros(n, bool)
+        if len(pairs):
+            big = (molality[:, pairs[:, 0]] >= SIGNIFICANT_MOLALITY) & (molality[:, pairs[:, 1]] >= SIGNIFICANT_MOLALITY)
+            outside = (state.pair_outside & big).any(axis=1)
+        covered = np.isin(np.arange(z2.size), pairs.ravel()) | (z2 == 0)
+        I = 0.5 * molality @ z2
+        share = np.divide(0.5 * molality[:, ~covered] @ z2[~covered], I, out=np.zeros(n), where=I > 0)
+        return join_flags(np.where(outside, parameter_temperature_flag(self.name), ""),
+                          np.where(share > UNPARAMETERIZED_SHARE, UNPARAMETERIZED_IONS, ""))
 
 
 @dataclass(frozen=True)

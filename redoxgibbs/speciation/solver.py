@@ -20,7 +20,6 @@ from ..flags import (
     ALKALINITY_NOT_USED,
     ionic_strength_flag,
     join_flags,
-    parameter_temperature_flag,
 )
 from ..species.database import default_database
 from ..species.properties import standard_properties
@@ -65,7 +64,7 @@ class SpeciationResult:
     iterations: np.ndarray              # Newton iterations per sample (both stages), (n,)
     activity_model: str
     beyond_model_validity: np.ndarray   # ionic strength above the model's stated limit, (n,)
-    outside_model_temperatures: np.ndarray  # parameters used outside their stated T range, (n,)
+    model_flags: np.ndarray             # the activity model's own validity flags, (n,) text
     present: np.ndarray                 # bool (n, n_species): built only from measured components
     density_estimated: np.ndarray       # per-litre units converted with an estimated density, (n,)
     failure: np.ndarray = None          # per sample: why it could not be computed ('' if it was)
@@ -106,9 +105,7 @@ class SpeciationResult:
         """Per sample, the comma-joined validity flags of the speciation ('' where none)."""
         flags = np.full(len(self.samples), "", dtype=object)
         flags[self.beyond_model_validity] = ionic_strength_flag(self.activity_model)
-        flags = join_flags(flags, np.where(self.outside_model_temperatures,
-                                           parameter_temperature_flag(self.activity_model), ""))
-        return join_flags(flags, self.input_flags)
+        return join_flags(join_flags(flags, self.model_flags), self.input_flags)
 
     def to_long_frame(self):
         """One row per sample x species, units in the column names; a sample that could not be
@@ -590,7 +587,7 @@ def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, 
         composition=system.nu,
         minerals=system.minerals, saturation_index=si, iterations=iterations,
         activity_model=model.name, beyond_model_validity=I > model.I_max, present=present,
-        outside_model_temperatures=model.outside_temperature_range(system.species, system.charge, m, s.T_K),
+        model_flags=np.where(failed, "", model.validity_flags(system.species, system.charge, np.nan_to_num(m), s.T_K)),
         density_estimated=s.density_estimated, failure=failure, input_flags=input_flags,
         standard_states=props, standard_rows=ok,
         water_per_kg_solution=W,

@@ -34,3 +34,10 @@ def test_range_flags_reach_the_sample_flags():
     cold = speciate(_brine(T_C=-2.0, nacl=0.5), "pitzer")     # MgCl2 parameters hold from 25 C
     assert "pitzer_parameters_outside_their_temperatures" in cold.sample_flags()[0]
     assert "pitzer_parameters_outside_their_temperatures" in cold.summary_frame()["flags"][0]
+
+
+def test_ions_without_parameters_are_flagged_beyond_one_percent_of_the_ionic_strength():
+    clean = _brine(nacl=0.5)
+    ammonium = _brine(nacl=0.5).assign(**{"NH4+ [mmol/kg]": [100.0]})
+    assert "pitzer_ions_without_parameters" not in speciate(clean, "pitzer").sample_flags()[0]
+    assert "pitzer_ions_without_parameters" in speciate(ammonium, "pitzer").sample_flags()[0]
