@@ -90,10 +90,12 @@ class Body:
 
     @property
     def interface_radius_m(self):
+        """Radius of the ice-ocean interface [m]."""
         return (self.radius_km - self.ice_shell_km) * 1e3
 
     @property
     def ice_mass_kg(self):
+        """Mass of the ice shell [kg] (uniform density)."""
         R, r = self.radius_km * 1e3, self.interface_radius_m
         return 4.0 * np.pi / 3.0 * self.ice_density_kg_m3 * (R**3 - r**3)
 
@@ -109,9 +111,11 @@ class Body:
         return 4.0 * np.pi / 3.0 * (r_top**3 - r_bottom**3)
 
     def surface_area_m2(self):
+        """Surface area of the body [m2]."""
         return 4.0 * np.pi * (self.radius_km * 1e3) ** 2
 
     def seafloor_area_m2(self):
+        """Area of the seafloor [m2]."""
         return 4.0 * np.pi * (self.interface_radius_m - self.ocean_depth_km * 1e3) ** 2
 
     def seafloor_pressure_bar(self, T_K):

@@ -29,6 +29,8 @@ __all__ = ["catalog", "catalog_reaction", "redox_couples", "couples_present", "e
 
 @dataclass(frozen=True)
 class NamedReaction:
+    """A named reaction: ``name``, the balanced ``reaction`` and the ``electrons`` it moves per mole as
+    written."""
     name: str
     reaction: Reaction
     electrons: float
@@ -102,6 +104,7 @@ def _catalog_for(db):
 
 
 def catalog_reaction(name, db=None):
+    """The catalog entry called ``name`` (a NamedReaction), or None where the catalog has none."""
     for entry in catalog(db):
         if entry.name.lower() == name.strip().lower():
             return entry

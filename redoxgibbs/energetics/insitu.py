@@ -93,6 +93,7 @@ class InsituEnergetics:
 
     @property
     def dGr_per_electron(self):
+        """dGr per mole of electrons moved [J/mol e-] (n, r); NaN for reactions that move none."""
         with np.errstate(divide="ignore", invalid="ignore"):
             return np.where(self.electrons > 0, self.dGr / self.electrons, np.nan)
 

@@ -99,6 +99,7 @@ class Supply:
         return f"into {self.volume_m3:g} m3" if np.isfinite(self.volume_m3) else "into the body's ocean"
 
     def describe(self):
+        """The supply model and its inputs in words (it names the model in every output)."""
         if self.kind == "flow-through":
             return f"flow-through: {self.flux_kg_per_s:g} kg/s through {self.volume_m3:g} m3"
         if self.kind == "turnover":
@@ -216,10 +217,12 @@ class PowerUnits:
 
     @property
     def volume_column(self):
+        """Column name of power per volume, e.g. ``power_W_per_m3``."""
         return f"power_{column_label(self.per_volume)}"
 
     @property
     def mass_column(self):
+        """Column name of power per mass of fluid, e.g. ``power_W_per_kg``."""
         return f"power_{column_label(self.per_mass)}"
 
 
@@ -232,6 +235,7 @@ class CellRequirement:
     basal_W: tuple = BASAL_W_PER_CELL
 
     def describe(self):
+        """The cell model and its ranges in words (it names the model in every output)."""
         if self.model == "tijhuis1993":
             lo, hi = self.cell_carbon_g
             return f"maintenance power, Tijhuis et al. (1993), cells of {lo:g}-{hi:g} g C"

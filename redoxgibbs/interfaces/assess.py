@@ -22,6 +22,8 @@ __all__ = ["Assessment", "run_assessment"]
 
 @dataclass
 class Assessment:
+    """Everything one scenario's assessment computed: samples, speciation, energetics, result tables (per
+    site and supply model), mixing, depth profile, habitability envelope, thresholds and their map."""
     scenario: object
     sample_set: object
     speciation: object

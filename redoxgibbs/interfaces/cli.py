@@ -362,6 +362,8 @@ def _parser():
 
 
 def main(argv=None):
+    """The ``redoxgibbs`` command: run ``argv`` (default: the command line); returns the exit status (0 ok,
+    1 some samples failed, 2 refused input)."""
     args = _parser().parse_args(argv)
     try:
         return args.run(args)

@@ -92,6 +92,7 @@ def _dot_plot(first, column, styles, xlabel, title, log=False):
 
 
 def gibbs_figure(first, styles):
+    """dGr per electron [kJ/mol e-] per sample and reaction: (Figure, caption)."""
     fig, note = _dot_plot(first, "dGr_kJ_per_mol_e", styles, "dGr [kJ per mol e-]",
                           "In-situ Gibbs energy per electron transferred")
     return fig, ("In-situ Gibbs energy of each reaction per mole of electrons transferred [kJ/mol e-], per "
@@ -100,6 +101,7 @@ def gibbs_figure(first, styles):
 
 
 def energy_density_figure(first, styles):
+    """Energy density [J per kg of water] per sample and reaction, log scale: (Figure, caption)."""
     fig, note = _dot_plot(first, "energy_density_J_per_kg", styles, "energy density [J per kg H2O]",
                           "Energy available per kilogram of fluid", log=True)
     return fig, ("Energy density [J per kg of water]: -dGr times the amount of reaction the limiting pool "

@@ -59,6 +59,8 @@ class Site:
 
 @dataclass
 class Scenario:
+    """A scenario file as read: sites and their samples, reactions, activity model, supply and cell models,
+    units, body, limits and the raw sections."""
     title: str
     samples: pd.DataFrame          # every site's sample rows as written, with a 'site' column (for display)
     sample_set: SampleSet          # the same samples read site by site (own units and species) and merged

@@ -62,6 +62,7 @@ class Evaluation:
 
     @property
     def failed(self):
+        """Per sample (n,): True where the sample could not be computed (its reason is in ``failure``)."""
         return self.speciation.failure != ""
 
     def power_column_names(self):

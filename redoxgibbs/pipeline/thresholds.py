@@ -43,6 +43,7 @@ class Target:
             raise InputError(f"threshold target {self.kind}: value = {self.value!r} must be a number above 0")
 
     def describe(self):
+        """The target in words, e.g. 'dGr = -10 kJ/mol' (it names the target in every output)."""
         return {"minimum_energy": f"dGr = -{self.value:g} kJ/mol",
                 "energy_density": f"energy density = {self.value:g} J/kg",
                 "cells": f"power for {self.value:g} cells/cm3"}[self.kind]

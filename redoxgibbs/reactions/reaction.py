@@ -73,6 +73,7 @@ class Reaction:
                 f"{', '.join(parts)}); adjust the coefficients or add H2O(l) / H+")
 
     def coefficient(self, name):
+        """Stoichiometric coefficient of ``species`` (negative for reactants, 0 when it takes no part)."""
         name = self.db.resolve(name)
         return float(self.coefficients[self.species.index(name)]) if name in self.species else 0.0
 
@@ -119,6 +120,7 @@ class ReactionProperties:
 
     @property
     def logK(self):
+        """log10 K = -dG0 / (RT ln 10) at each state."""
         return -self.dG0 / (R_J_MOL_K * self.T_K * np.log(10))
 
     def to_frame(self):

@@ -50,6 +50,7 @@ def fraction_for_temperature(T_mix, T_a, T_b, P_bar, rule="enthalpy"):
     return np.clip((h - h_b) / (h_a - h_b), 0.0, 1.0)
 
 def end_member_row(samples, name):
+    """The row of the sample called ``name`` in a SampleSet, refusing a name it does not hold."""
     if name not in samples.names:
         raise InputError(f"mixing: no sample called {name!r}; samples are {', '.join(samples.names)}")
     return samples.names.index(name)

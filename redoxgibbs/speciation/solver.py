@@ -98,6 +98,7 @@ class SpeciationResult:
 
     @property
     def log10_activity(self):
+        """log10 activity (n, n_species) of every species present; -inf where a species is absent."""
         with np.errstate(divide="ignore"):
             return np.where(self.present, np.log10(np.where(self.present, self.molality, 1.0)) + self.log10_gamma, -np.inf)
 
@@ -126,6 +127,8 @@ class SpeciationResult:
         return frame[keep | first_row].reset_index(drop=True)
 
     def summary_frame(self):
+        """One row per sample: T [degC], P [bar], in-situ pH, ionic strength [mol/kg], charge imbalance
+        [eq/kg], iterations, flags and failure."""
         return pd.DataFrame({
             "sample": self.samples, "T_C": self.T_K - 273.15, "P_bar": self.P_bar,
             "pH_insitu": self.pH, "ionic_strength_mol_per_kg": self.ionic_strength,

@@ -182,9 +182,12 @@ class SpeciesDatabase:
 
     @property
     def names(self):
+        """Canonical names of every species in the data, in load order."""
         return list(self._records)
 
     def record(self, name):
+        """The SpeciesRecord of a species (by canonical name or alias); unknown names are refused with the
+        nearest known ones."""
         return self._records[self.resolve(name)]
 
     def resolve(self, text):

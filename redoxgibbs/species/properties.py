@@ -16,7 +16,6 @@ from ..standard_state.gas import apparent_gas_properties, nasa7_coefficients
 from ..standard_state.hkf_states import hkf_parameters, hkf_properties
 from ..standard_state.mineral import maier_kelley_properties
 from ..standard_state.solvent import apparent_water_properties
-from ..units import CAL_TO_J
 from ..water.iapws95 import near_critical, water_state
 from .database import default_database
 
@@ -46,6 +45,7 @@ class StandardProperties:
     flags: dict
 
     def column(self, name):
+        """The column of species ``name`` in the (n_states, n_species) arrays."""
         return self.names.index(name)
 
 

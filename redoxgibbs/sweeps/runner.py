@@ -59,6 +59,7 @@ class Distribution:
     values: tuple = ()
 
     def draw(self, rng, n):
+        """``n`` values drawn with the generator ``rng`` (grids are laid out by the sweep, not drawn)."""
         if self.kind == "normal":
             return rng.normal(self.a, self.b, n)
         if self.kind == "lognormal":
@@ -120,16 +121,19 @@ class SweepSpec:
 
     @property
     def is_grid(self):
+        """True for a grid sweep (value lists), False for Monte Carlo draws."""
         return any(d.kind == "grid" for d in self.inputs.values())
 
     @property
     def total(self):
+        """Number of evaluations: the product of the grid's lengths, or the draws."""
         if self.is_grid:
             return int(np.prod([len(d.values) for d in self.inputs.values()]))
         return self.n
 
     @property
     def n_chunks(self):
+        """Number of chunks the sweep is written in."""
         return -(-self.total // self.chunk_size)
 
 

@@ -31,6 +31,8 @@ _EPS_VACUUM = 8.8541878128e-12   # F/m
 
 @dataclass(frozen=True)
 class BornFunctions:
+    """The Born functions of the solvent at states: Z = -1/eps, Y = dZ/dT [1/K], Q = dZ/dP [1/bar], X =
+    dY/dT [1/K2] (Helgeson & Kirkham 1974)."""
     Z: np.ndarray   # [-]
     Y: np.ndarray   # [1/K]
     Q: np.ndarray   # [1/bar]

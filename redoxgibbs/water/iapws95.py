@@ -100,10 +100,12 @@ class WaterState:
 
     @property
     def V_cm3_mol(self):
+        """Molar volume of water [cm3/mol] = M_w / rho."""
         return M_WATER_KG_PER_MOL / self.density_kg_m3 * 1e6
 
     @property
     def shape(self):
+        """Shape of the arrays of states."""
         return self.T_K.shape
 
 
