@@ -206,15 +206,16 @@ def run_chunk(spec, index, out_dir):
     out["pH_insitu"] = result.pH
     out["flags"] = e.flags_of_sample
     out["failure"] = result.failure
-    units = spec.power_units
     for r, x in enumerate(reactions):
         out[f"{x.name}|dGr_kJ_per_mol"] = e.dGr[:, r] / 1e3
         out[f"{x.name}|energy_density_J_per_kg"] = e.energy_density_J_per_kg[:, r]
-        for supply, power in zip(spec.supplies, ev.power_W_per_m3):
-            tag = "" if len(spec.supplies) == 1 else f" [{supply.describe()}]"
-            out[f"{x.name}|{units.volume_column}{tag}"] = power[:, r] * units.volume_factor
-            out[f"{x.name}|cells_per_m3_low{tag}"] = power[:, r] / ev.cells_W_high
-            out[f"{x.name}|cells_per_m3_high{tag}"] = power[:, r] / ev.cells_W_low
+    n_r = len(reactions)
+    for k, supply in enumerate(spec.supplies):     # power, cells and growth: the evaluation's own columns
+        tag = "" if len(spec.supplies) == 1 else f" [{supply.describe()}]"
+        for column, values in ev.power_columns(k).items():
+            per_reaction = values.reshape(-1, n_r)
+            for r, x in enumerate(reactions):
+                out[f"{x.name}|{column}{tag}"] = per_reaction[:, r]
     path = Path(out_dir) / _chunk_name(index)
     tmp = path.with_name(f"{path.stem}.{os.getpid()}.{uuid.uuid4().hex}.partial")   # unique per writer
     out.to_parquet(tmp, index=False)
