@@ -13,6 +13,7 @@ import redoxgibbs  # noqa: E402
 
 project = "redoxgibbs"
 author = "the redoxgibbs developers"
+copyright = "the redoxgibbs developers"
 release = version = redoxgibbs.__version__
 extensions = ["sphinx.ext.autodoc", "sphinx.ext.autosummary", "sphinx.ext.mathjax", "numpydoc"]
 autosummary_generate = True
