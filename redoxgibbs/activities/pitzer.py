@@ -16,7 +16,7 @@ not species of this model: their association is carried by the interaction param
 (Harvie et al. 1984), and the speciation leaves them out (``BASIS_IONS``, ``MODEL_COMPLEXES``).
 """
 
-from dataclasses import dataclass, field
+from dataclasses import dataclass
 from functools import lru_cache
 from importlib import resources
 
@@ -178,7 +178,7 @@ class _Terms:
     lambdas: np.ndarray        # (L, 2) neutral, ion
     lambda_rows: list
     charge_groups: list        # per sign: list of (charge, member indices)
-    neutral_with_lambda: np.ndarray = field(default=None)
+    neutral_with_lambda: np.ndarray   # neutral species that have lambda parameters
 
 
 def _rows_of(table, kind, names, parameter):
@@ -206,10 +206,7 @@ def _terms(names, charges):
     th = {**_rows_of(table, "cc", names, "theta"), **_rows_of(table, "aa", names, "theta")}
     ps = {**_rows_of(table, "cca", names, "psi"), **_rows_of(table, "caa", names, "psi")}
     la = {**_rows_of(table, "nc", names, "lambda"), **_rows_of(table, "na", names, "lambda")}
-    groups = []
-    for sign in (1, -1):
-        charged = [(c, np.flatnonzero(z == c)) for c in np.unique(z[np.sign(z) == sign])]
-        groups.append(charged)
+    groups = [[(c, np.flatnonzero(z == c)) for c in np.unique(z[np.sign(z) == sign])] for sign in (1, -1)]
     lam = np.array(list(la), dtype=int).reshape(-1, 2)
     return _Terms(pairs=pairs, pair_rows=pair_rows, alpha1=alpha1,
                   thetas=np.array(list(th), dtype=int).reshape(-1, 2), theta_rows=list(th.values()),

@@ -114,7 +114,6 @@ def habitability_envelope(evaluation, limits=Limits(), minimum_energy_kJ=None, s
     failure = result.failure[idx].astype(str)
     computed = failure == ""
     T_freeze = np.where(computed, result.freezing_point_K()[idx] - 273.15, np.nan)
-    T_freeze = np.where(np.isnan(T_freeze) & computed & (T_C > 0), 0.0, T_freeze)   # above 0 C: not frozen
     T_boil = saturation_temperature_K(result.P_bar[idx]) - 273.15
     out = []
 
@@ -124,9 +123,14 @@ def habitability_envelope(evaluation, limits=Limits(), minimum_energy_kJ=None, s
                                  "source": source}))
 
     frozen_or_vapour = np.char.startswith(failure, "frozen") | (np.char.find(failure, "vapour") >= 0)
-    liquid_limit = [f"{a:.2f} to {b:.1f} degC" if np.isfinite(b) else
-                    (f"above {a:.2f} degC (no boiling above the critical pressure)" if np.isfinite(a) else "")
-                    for a, b in zip(T_freeze, T_boil)]
+    def liquid_range(freeze, boil, ok):
+        if not ok:
+            return ""
+        low = f"{freeze:.2f}" if np.isfinite(freeze) else "below -20 (colder than any liquid evaluated here)"
+        return f"{low} to {boil:.1f} degC" if np.isfinite(boil) else \
+            f"above {low} degC (no boiling above the critical pressure)"
+
+    liquid_limit = [liquid_range(a, b, ok) for a, b, ok in zip(T_freeze, T_boil, computed)]
     add("liquid water", T_C, "degC", liquid_limit,
         np.where(computed, "pass", np.where(frozen_or_vapour, "fail", "not assessed")),
         "the fluid's own freezing point (IAPWS R10-06 ice against its water activity) and boiling "

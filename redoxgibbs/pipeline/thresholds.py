@@ -87,8 +87,7 @@ def solve_input(samples, reaction, column, target, bracket, activity_model="bdot
         part = frame.iloc[rows].copy()
         part[column] = unscale(u)
         ev = evaluate(part, [reaction], activity_model, supplies, cells, db=db, body=body)
-        reason = np.where(ev.speciation.failure != "", ev.speciation.failure, "")
-        return _metric(ev, target) - target.value, reason
+        return _metric(ev, target) - target.value, ev.speciation.failure
 
     a, b = np.full(n, scale(low)), np.full(n, scale(high))
     fa, why_a = f(np.arange(n), a)

@@ -396,10 +396,11 @@ def _at_own_freezing_points(s, activity_model_name, pH_from_charge_balance, db, 
     water activity found (three times: a_w changes by about 1e-5 per K). A freezing point colder than
     any liquid evaluated here is the sample's failure."""
     s = s.subset(np.ones(len(s), bool))
-    rows = np.flatnonzero(s.at_freezing & (s.problems == ""))
+    settle = s.at_freezing & (s.problems == "")
+    rows = np.flatnonzero(settle)
     if rows.size == 0:
         return s
-    sub = s.subset(np.isin(np.arange(len(s)), rows))
+    sub = s.subset(settle)
     sub.at_freezing = np.zeros(rows.size, bool)
     target = None if charge_balance_target is None else np.asarray(charge_balance_target, float)[rows]
     follows = np.abs(sub.pH_T_K - sub.T_K) < 1e-9     # pH given at the in-situ temperature
