@@ -155,3 +155,33 @@ def test_feasibility_map_dimensions_and_values():
     single = solve_input(pd.DataFrame([{**base, "T [degC]": 50.0, "pH": 8.0}]), METHANOGENESIS, "H2(aq) [umol/kg]",
                          Target("minimum_energy", 10.0), (1e-9, 1e5))
     assert float(ds["threshold"].sel(T=50.0, pH=8.0)) == pytest.approx(single["H2(aq) [umol/kg]"][0], rel=1e-7)
+
+
+def test_envelope_each_other_limit_at_each_side():
+    cold = _fluid(**{"T [degC]": -5.0, "Na+ [mmol/kg]": 1500.0, "Cl- [mmol/kg]": 1500.0})
+    assert _verdicts([cold])[("s0", "temperature, lower")] == "pass"
+    assert _verdicts([cold], Limits(T_min_C=0.0))[("s0", "temperature, lower")] == "fail"
+    acid = _fluid(pH=0.5)
+    assert _verdicts([acid])[("s0", "pH")] == "pass"
+    assert _verdicts([acid], Limits(pH_min=1.0))[("s0", "pH")] == "fail"
+    nutrients = [_fluid(**{"NH4+ [umol/kg]": 2.0, "SO4^2- [umol/kg]": 2.0, "Fe^2+ [umol/kg]": 0.002}),
+                 _fluid(**{"NH4+ [umol/kg]": 0.5, "SO4^2- [umol/kg]": 0.5, "Fe^2+ [umol/kg]": 0.0005})]
+    v = _verdicts(nutrients)
+    for criterion in ("nutrient: fixed nitrogen", "nutrient: sulfur", "nutrient: iron"):
+        assert (v[("s0", criterion)], v[("s1", criterion)]) == ("pass", "fail"), criterion
+
+
+def test_energy_criteria_at_each_side():
+    frame = pd.DataFrame([_fluid()])
+    ev = evaluate(frame, [METHANOGENESIS], "bdot", [Supply("turnover", tau_s=3.15e7)])
+    best = -ev.energetics.dGr[0, 0] / 1e3
+    verdict = lambda env, c: env.loc[env["criterion"] == c, "verdict"].item()   # noqa: E731
+    assert verdict(habitability_envelope(ev, minimum_energy_kJ=best * 0.99), "energy: best reaction's -dGr") == "pass"
+    assert verdict(habitability_envelope(ev, minimum_energy_kJ=best * 1.01), "energy: best reaction's -dGr") == "fail"
+    # the power keeps P / demand cells: pass when even the high demand is met, fail when not the low one
+    P = ev.power_W_per_m3[0][0, 0]
+    low_W, high_W = ev.cells_W_low[0], ev.cells_W_high[0]
+    for need, expected in ((P / high_W / 1e6 * 0.99, "pass"), (P / low_W / 1e6 * 1.01, "fail"),
+                           (np.sqrt(P / high_W * P / low_W) / 1e6, "uncertain")):
+        env = habitability_envelope(ev, Limits(cells_per_cm3_min=need))
+        assert verdict(env, "energy: power for cells") == expected, expected
