@@ -24,7 +24,6 @@ from dataclasses import dataclass, fields
 import numpy as np
 import pandas as pd
 
-from ..energetics.power import power_per_cell_W
 from ..errors import InputError
 from ..species.database import default_database
 from ..water.iapws95 import saturation_temperature_K
@@ -173,11 +172,13 @@ def _power_criterion(add, evaluation, idx, limits, supply_index, cells):
         add("energy: power for cells", np.nan, "cells/cm3", f">= {limits.cells_per_cm3_min:g}", "not assessed",
             "no supply model given")
         return
-    P = evaluation.power_W_per_m3[supply_index][idx]
-    low_W, high_W = power_per_cell_W(cells, evaluation.speciation.T_K[idx])
-    finite = np.isfinite(P).any(axis=1) if P.size else np.zeros(idx.size, bool)
-    best = np.where(finite, np.nanmax(np.where(np.isfinite(P), P, -np.inf), axis=1), np.nan)
-    cells_low, cells_high = best / high_W / 1e6, best / low_W / 1e6      # per cm3
+    # the evaluation's own cell numbers (per m3, sample x reaction), of the best reaction, per cm3
+    columns = evaluation.power_columns(supply_index, idx, cells)
+    n_r = len(evaluation.energetics.reactions)
+    low, high = (columns[c].reshape(idx.size, n_r) for c in ("cells_per_m3_low", "cells_per_m3_high"))
+    finite = np.isfinite(high).any(axis=1) if high.size else np.zeros(idx.size, bool)
+    cells_low, cells_high = (np.where(finite, np.nanmax(np.where(np.isfinite(x), x, -np.inf), axis=1), np.nan) / 1e6
+                             for x in (low, high))
     need = limits.cells_per_cm3_min
     verdict = np.where(~finite, "not assessed", np.where(cells_low >= need, "pass",
                                                          np.where(cells_high < need, "fail", "uncertain")))

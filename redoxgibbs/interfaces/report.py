@@ -42,10 +42,16 @@ def save_figure(fig, out, stem):
     return buf.getvalue()
 
 
+def _first_supply_rows(results):
+    """The result rows of each sample's site's first supply model (results are site by site, each
+    site's models in order): one row per sample x reaction, as the figures and rankings show."""
+    return results.drop_duplicates(subset=["sample", "reaction"], keep="first")
+
+
 def report_figures(assessment):
     """Every figure of the report as {stem: (Figure, caption)} (not yet saved: tests inspect them)."""
     results = assessment.results
-    first = results.drop_duplicates(subset=["sample", "reaction"], keep="first")   # each site's first supply
+    first = _first_supply_rows(results)
     first = first.assign(label=first["site"] + " / " + first["sample"])
     sc = assessment.scenario
     styles = reaction_styles([x.name for x in sc.reactions])
@@ -211,7 +217,7 @@ def write_outputs(assessment, out_dir):
     results.to_csv(out / "results.csv", index=False)
     if assessment.dataset is not None:
         write_netcdf(assessment.dataset, out / "results.nc")
-    first = results.drop_duplicates(subset=["sample", "reaction"], keep="first")
+    first = _first_supply_rows(results)
     ranking = _rankings(first, out, sc.power_units)
     if assessment.mixing is not None:
         assessment.mixing.to_csv(out / "mixing.csv", index=False)

@@ -58,7 +58,7 @@ def _metric(ev, target):
         return ev.energetics.energy_density_J_per_kg[:, 0]
     if not ev.supplies:
         raise InputError("threshold target 'cells' needs a supply model")
-    return ev.power_W_per_m3[0][:, 0] / ev.cells_W_low / 1e6
+    return ev.power_columns(0)["cells_per_m3_high"] / 1e6     # one reaction: one value per sample
 
 
 def _on_log_scale(column):
