@@ -49,7 +49,6 @@ def _power_frames(scenario, ev):
     base = ev.energetics.to_frame(scenario.per_species)
     base.insert(0, "site", np.repeat(scenario.site_of_samples(), len(scenario.reactions)))
     r = len(scenario.reactions)
-    index = {x.describe(): k for k, x in enumerate(ev.supplies)}
     frames = []
     for site in scenario.sites:
         rows = site.rows
@@ -61,7 +60,7 @@ def _power_frames(scenario, ev):
                     frame[col] = np.nan
             else:
                 frame["supply"] = supply.describe()
-                for col, values in ev.power_columns(index[supply.describe()], rows, site.cells).items():
+                for col, values in ev.power_columns(ev.supply_index(supply), rows, site.cells).items():
                     frame[col] = values
             frame["cell_model"] = site.cells.describe()
             frames.append(frame)
@@ -113,10 +112,9 @@ def run_assessment(scenario_path, quiet=False):
 
 def _envelope(scenario, ev, db):
     """The habitability envelope of every sample, each site with its first supply and cell model."""
-    index = {x.describe(): k for k, x in enumerate(ev.supplies)}
     parts = []
     for site in scenario.sites:
-        k = index[site.supplies[0].describe()] if site.supplies else None
+        k = ev.supply_index(site.supplies[0]) if site.supplies else None
         part = habitability_envelope(ev, scenario.limits, scenario.minimum_energy_kJ, k, site.cells, site.rows, db)
         parts.append(part.assign(site=site.name))
     frame = pd.concat(parts, ignore_index=True)

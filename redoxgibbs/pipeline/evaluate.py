@@ -65,6 +65,11 @@ class Evaluation:
         """Per sample (n,): True where the sample could not be computed (its reason is in ``failure``)."""
         return self.speciation.failure != ""
 
+    def supply_index(self, supply):
+        """The index of ``supply`` among the evaluation's supply models (the same model, however
+        often several sites name it)."""
+        return [x.describe() for x in self.supplies].index(supply.describe())
+
     def power_column_names(self):
         """The names of the columns :meth:`power_columns` gives."""
         return [self.units.volume_column, self.units.mass_column, "cells_per_m3_low", "cells_per_m3_high",
