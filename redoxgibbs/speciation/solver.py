@@ -41,6 +41,7 @@ PRE_STEPS = 3              # continued-fraction steps before Newton
 TOLERANCE = 1e-11          # residuals, relative to each row's scale (mass balance to 1e-11)
 GAMMA_TOLERANCE = 1e-10    # change of log10 gamma between iterations
 OSCILLATION_LOG_GAMMA = 0.01   # a growing change of log10 gamma above this is damped
+SIGNIFICANT_SHARE = 0.01   # a species holding this share of a component's total carries its caveats
 
 
 @dataclass
@@ -69,6 +70,7 @@ class SpeciationResult:
     density_estimated: np.ndarray       # per-litre units converted with an estimated density, (n,)
     failure: np.ndarray = None          # per sample: why it could not be computed ('' if it was)
     input_flags: np.ndarray = None      # per sample: notes on the inputs (assumed, below detection)
+    data_flags: np.ndarray = None       # per sample: caveats of the species data used, (n,) text
     standard_states: object = None      # StandardProperties (G) of the system at the in-situ states
     standard_rows: np.ndarray = None    # the samples those rows belong to (those solved)
     water_per_kg_solution: np.ndarray = None   # kg of water per kg of solution, (n,)
@@ -106,7 +108,8 @@ class SpeciationResult:
         """Per sample, the comma-joined validity flags of the speciation ('' where none)."""
         flags = np.full(len(self.samples), "", dtype=object)
         flags[self.beyond_model_validity] = ionic_strength_flag(self.activity_model)
-        return join_flags(join_flags(flags, self.model_flags), self.input_flags)
+        flags = join_flags(join_flags(flags, self.model_flags), self.input_flags)
+        return flags if self.data_flags is None else join_flags(flags, self.data_flags)
 
     def to_long_frame(self):
         """One row per sample x species, units in the column names; a sample that could not be
@@ -300,6 +303,30 @@ def _solve_or_least_squares(J, b):
     except np.linalg.LinAlgError:
         with np.errstate(all="ignore"):
             return np.nan_to_num(np.linalg.pinv(J) @ b)
+
+
+def _species_data_flags(props, rows, m, system, masters, n):
+    """Per sample (n,), the standard-state caveats (a formation species outside the temperatures
+    where its constant reaction enthalpy holds, HKF extrapolations ...) of the species that hold at
+    least SIGNIFICANT_SHARE of the total of one of their components; the H+ and water budgets do
+    not count. ``props`` covers the samples ``rows``."""
+    out = np.full(n, "", dtype=object)
+    if props is None:
+        return out
+    mr = np.nan_to_num(m[rows])
+    significant = np.zeros(mr.shape, bool)
+    for j, master in enumerate(masters):
+        if master == "H+":
+            continue
+        held = mr * np.abs(system.nu[:, j])
+        total = held.sum(axis=1, keepdims=True)
+        significant |= (system.nu[:, j] != 0) & (held >= SIGNIFICANT_SHARE * total) & (total > 0)
+    n_sp = len(system.species)
+    part = np.full(int(rows.sum()), "", dtype=object)
+    for name, where in props.flags.items():
+        part = join_flags(part, np.where((where[:, :n_sp] & significant).any(axis=1), name, ""))
+    out[rows] = part
+    return out
 
 
 def _dominant_species_start(system, logK, totals, measured, log_aH):
@@ -573,6 +600,7 @@ def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, 
         frozen = _frozen_samples(s, law, ok)
         failure[frozen != ""] = frozen[frozen != ""]
     failed = failure != ""
+    data_flags = np.where(failed, "", _species_data_flags(props, ok, m, system, masters, n))
     for arr in (m, lg, law, I, pH, logK_min, rho_w):
         arr[failed] = np.nan
     W, _ = s.water_fraction_and_density(db)
@@ -593,6 +621,6 @@ def speciate(samples, activity_model_name="bdot", pH_from_charge_balance=False, 
         activity_model=model.name, beyond_model_validity=I > model.I_max, present=present,
         model_flags=np.where(failed, "", model.validity_flags(system.species, system.charge, np.nan_to_num(m), s.T_K)),
         density_estimated=s.density_estimated, failure=failure, input_flags=input_flags,
-        standard_states=props, standard_rows=ok,
+        data_flags=data_flags, standard_states=props, standard_rows=ok,
         water_per_kg_solution=W,
         density_kg_L=s.insitu_density_kg_L(W, rho_w))

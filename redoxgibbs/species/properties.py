@@ -134,7 +134,7 @@ def _formation_block(db, formation, index, T, arrays, flags, properties):
     T_C = (T - 273.15)[:, None]
     flags[OUTSIDE_FORMATION_RANGE][:, fcols] |= (T_C < T_min - 1e-9) | (T_C > T_max)
     missing = np.array([e[4] for e in expanded])
-    flags[FORMATION_ENTHALPY_MISSING][:, fcols] |= missing & np.any(T != T_REF_K)
+    flags[FORMATION_ENTHALPY_MISSING][:, fcols] |= missing[None, :] & (np.abs(T - T_REF_K) > 1e-6)[:, None]
 
 
 def standard_properties(names, T_K, P_bar, db=None, properties=ALL_PROPERTIES, water=water_state):
