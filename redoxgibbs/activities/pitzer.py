@@ -171,6 +171,7 @@ class _Terms:
     pairs: np.ndarray          # (P, 2) cation, anion indices of ca pairs with parameters
     pair_rows: dict            # parameter name -> list per pair of (coefficients (R, 10), ranges (R, 2))
     alpha1: np.ndarray         # (P,) alpha1 per pair (Harvie et al. 1984: 1.4 for 2:2 pairs, else 2)
+    alpha2: np.ndarray         # (P,) alpha2 per pair (Harvie et al. 1984: 12), unless a row sets them
     thetas: np.ndarray         # (Q, 2)
     theta_rows: list
     triplets: np.ndarray       # (U, 3)
@@ -203,12 +204,17 @@ def _terms(names, charges):
     pairs = np.array(keys, dtype=int).reshape(-1, 2)
     pair_rows = {p: [params[p].get(k) for k in keys] for p in params}
     alpha1 = np.where((np.abs(z[pairs[:, 0]]) == 2) & (np.abs(z[pairs[:, 1]]) == 2), 1.4, 2.0) if keys else np.zeros(0)
+    alpha2 = np.full(len(keys), ALPHA2)
+    for alpha, name in ((alpha1, "alpha1"), (alpha2, "alpha2")):     # a source's own alphas (const rows)
+        for key, (coeffs, _) in _rows_of(table, "ca", names, name).items():
+            if key in keys:
+                alpha[keys.index(key)] = coeffs[0, 0]
     th = {**_rows_of(table, "cc", names, "theta"), **_rows_of(table, "aa", names, "theta")}
     ps = {**_rows_of(table, "cca", names, "psi"), **_rows_of(table, "caa", names, "psi")}
     la = {**_rows_of(table, "nc", names, "lambda"), **_rows_of(table, "na", names, "lambda")}
     groups = [[(c, np.flatnonzero(z == c)) for c in np.unique(z[np.sign(z) == sign])] for sign in (1, -1)]
     lam = np.array(list(la), dtype=int).reshape(-1, 2)
-    return _Terms(pairs=pairs, pair_rows=pair_rows, alpha1=alpha1,
+    return _Terms(pairs=pairs, pair_rows=pair_rows, alpha1=alpha1, alpha2=alpha2,
                   thetas=np.array(list(th), dtype=int).reshape(-1, 2), theta_rows=list(th.values()),
                   triplets=np.array(list(ps), dtype=int).reshape(-1, 3), psi_rows=list(ps.values()),
                   lambdas=lam, lambda_rows=list(la.values()), charge_groups=groups,
@@ -263,6 +269,7 @@ class PitzerModel:
         for p, rows in terms.pair_rows.items():
             values[p], outside[p] = _evaluate(rows, T)
         values["alpha1"] = np.broadcast_to(terms.alpha1, values["beta0"].shape)
+        values["alpha2"] = np.broadcast_to(terms.alpha2, values["beta0"].shape)
         values["theta"] = _evaluate(terms.theta_rows, T)[0]
         values["psi"] = _evaluate(terms.psi_rows, T)[0]
         values["lambda"] = _evaluate(terms.lambda_rows, T)[0]
@@ -330,7 +337,7 @@ def pitzer_activities(terms, charges, m, values, A_phi):
     eqs. 1-9 (with their appendix A) for molalities m (n, s) [mol/kg].
 
     ``values``: parameter values at each state (n, K) per kind (beta0, beta1, beta2, Cphi,
-    alpha1 per cation-anion pair of ``terms``; theta; psi; lambda); A_phi (n,) [kg^0.5 mol^-0.5].
+    alpha1, alpha2 per cation-anion pair of ``terms``; theta; psi; lambda); A_phi (n,) [kg^0.5 mol^-0.5].
     """
     z = np.asarray(charges, float)
     n, s = m.shape
@@ -347,7 +354,7 @@ def pitzer_activities(terms, charges, m, values, A_phi):
     if len(terms.pairs):
         c, a = terms.pairs[:, 0], terms.pairs[:, 1]
         b0, b1, b2, cphi = (values[p] for p in ("beta0", "beta1", "beta2", "Cphi"))
-        x1, x2 = values["alpha1"] * sI[:, None], ALPHA2 * sI[:, None]
+        x1, x2 = values["alpha1"] * sI[:, None], values["alpha2"] * sI[:, None]
         Bv = b0 + b1 * pitzer_g(x1) + b2 * pitzer_g(x2)
         Bp = (b1 * pitzer_g_prime(x1) + b2 * pitzer_g_prime(x2)) / I[:, None]
         Bphi = b0 + b1 * np.exp(-x1) + b2 * np.exp(-x2)
