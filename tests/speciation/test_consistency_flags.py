@@ -20,3 +20,13 @@ def test_a_sample_does_not_take_its_neighbours_caveats():
     flags = speciate(seawater_samples([25.0, 60.0], [1.0, 1.0]), "bdot").sample_flags()
     assert flags[0] == ""
     assert np.all([f == "" or "formation" in f for f in flags])
+
+
+def test_the_hot_acid_chloride_fluid_is_flagged():
+    # NaCl(aq) (trusted to 150 C) holds 5 % of the chloride of this 350 C fluid, whose in-situ pH is
+    # a known departure (tests/speciation/test_speciation.py): the result must say so
+    import pandas as pd
+
+    frame = pd.DataFrame({"sample": ["hot"], "T [degC]": [350.0], "P [bar]": [300.0], "pH": [3.5],
+                          "pH T [degC]": [25.0], "Na+ [mmol/kg]": [500.0], "Cl- [mmol/kg]": [550.0]})
+    assert "outside_formation_T_range" in speciate(frame, "bdot").sample_flags()[0]
