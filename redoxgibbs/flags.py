@@ -79,7 +79,9 @@ FLAGS = {
                                      "temperature (salting-out neglected)",
     ionic_strength_flag("MODEL"): "ionic strength beyond the activity model's stated range (Davies 0.5, "
                                   "B-dot 1, Pitzer 6 mol/kg)",
-    parameter_temperature_flag("MODEL"): "an ion pair, both ions at 0.01 mol/kg or more, whose interaction "
-                                         "parameters are used outside the temperatures their source states "
-                                         "(Pitzer model; held at the nearest end of that range)",
+    parameter_temperature_flag("MODEL"): "an ion pair whose interaction parameters are used outside the "
+                                         "temperatures their source states (Pitzer model; held at the nearest "
+                                         "end of that range): both ions at 0.01 mol/kg or more, or one of them "
+                                         "and a trace ion (1 umol/kg or more, e.g. H+ with Cl-) more than 25 K "
+                                         "outside",
 }

@@ -48,6 +48,12 @@ B_PITZER = 1.2              # kg^0.5 mol^-0.5, Pitzer (1973), common to every io
 ALPHA2 = 12.0               # kg^0.5 mol^-0.5, Harvie et al. (1984) for pairs with a beta2 term
 T_REF_PITZER_K = T_REF_K       # the reference temperature of the about25 and PP86 forms
 SIGNIFICANT_MOLALITY = 0.01  # mol/kg: a pair outside its parameters' range is flagged above this
+# A trace ion's activity coefficient rests on its pairs with the major ions (H+ with Cl- sets the
+# pH). Held at their range's end, such a pair's parameters err by d(beta)/dT x the distance; with the
+# temperature slopes of this file's about25 rows (1e-3 to 4e-3 per K) 25 K keeps that error below
+# about 0.05 in log10 gamma of a trace ion in 0.5 mol/kg of its counter-ion. Farther out, flagged.
+TRACE_PAIR_ALLOWANCE_K = 25.0
+TRACE_MOLALITY = 1e-6        # mol/kg: trace ions scarcer than this (OH- in an acid fluid) are not judged
 #: Share of the ionic strength that ions without Pitzer parameters may carry before the sample is
 #: flagged (they get only the Debye-Hueckel and mixing terms)
 UNPARAMETERIZED_SHARE = 0.01
@@ -223,9 +229,9 @@ def _terms(names, charges):
 
 def _evaluate(rows, T_K):
     """Values (n, K) of K parameters, each from the row whose T range holds T (else the nearest
-    end of the nearest row, held constant); and whether T lay outside every row's range (n, K)."""
+    end of the nearest row, held constant); and how far [K] T lay outside every row's range (n, K)."""
     n = T_K.shape[0]
-    values, outside = np.zeros((n, len(rows))), np.zeros((n, len(rows)), bool)
+    values, outside = np.zeros((n, len(rows))), np.zeros((n, len(rows)))
     for k, entry in enumerate(rows):
         if entry is None:
             continue
@@ -236,7 +242,7 @@ def _evaluate(rows, T_K):
         pick = np.argmin(distance, axis=1)
         Tp = Tc[np.arange(n), pick]
         values[:, k] = np.einsum("nj,nj->n", _basis(Tp), coeffs[pick])
-        outside[:, k] = distance[np.arange(n), pick] > 0.01
+        outside[:, k] = distance[np.arange(n), pick]
     return values, outside
 
 
@@ -273,14 +279,15 @@ class PitzerModel:
         values["theta"] = _evaluate(terms.theta_rows, T)[0]
         values["psi"] = _evaluate(terms.psi_rows, T)[0]
         values["lambda"] = _evaluate(terms.lambda_rows, T)[0]
-        pair_outside = outside["beta0"] | outside["beta1"] | outside["beta2"] | outside["Cphi"]
-        return _PitzerAtStates(terms, np.asarray(charges, float), tuple(names), T, values, pair_outside,
+        pair_beyond_K = np.maximum.reduce([outside[p] for p in ("beta0", "beta1", "beta2", "Cphi")])
+        return _PitzerAtStates(terms, np.asarray(charges, float), tuple(names), T, values, pair_beyond_K,
                                debye_hueckel_aphi_moller_1988(T))
 
     def validity_flags(self, names, charges, molality, T_K):
-        """Per sample (n,), the model's flags: a cation-anion pair, both ions at
-        SIGNIFICANT_MOLALITY or more, outside the temperatures its parameters' source states
-        (``parameter_temperature_flag``); ions without any cation-anion parameter carrying more
+        """Per sample (n,), the model's flags: a cation-anion pair outside the temperatures its
+        parameters' source states (``parameter_temperature_flag``), with both ions at
+        SIGNIFICANT_MOLALITY or more, or with one of them there, the other at TRACE_MOLALITY or more
+        and the pair more than TRACE_PAIR_ALLOWANCE_K outside; ions without any cation-anion parameter carrying more
         than UNPARAMETERIZED_SHARE of the ionic strength (``UNPARAMETERIZED_IONS``)."""
         state = self.at(names, charges, T_K)
         pairs = state.terms.pairs
@@ -288,8 +295,12 @@ class PitzerModel:
         n = molality.shape[0]
         outside = np.zeros(n, bool)
         if len(pairs):
-            big = (molality[:, pairs[:, 0]] >= SIGNIFICANT_MOLALITY) & (molality[:, pairs[:, 1]] >= SIGNIFICANT_MOLALITY)
-            outside = (state.pair_outside & big).any(axis=1)
+            mc, ma = molality[:, pairs[:, 0]], molality[:, pairs[:, 1]]
+            both = (mc >= SIGNIFICANT_MOLALITY) & (ma >= SIGNIFICANT_MOLALITY)
+            trace = (((mc >= SIGNIFICANT_MOLALITY) & (ma >= TRACE_MOLALITY))
+                     | ((ma >= SIGNIFICANT_MOLALITY) & (mc >= TRACE_MOLALITY)))
+            outside = ((both & (state.pair_beyond_K > 0.01))
+                       | (trace & (state.pair_beyond_K > TRACE_PAIR_ALLOWANCE_K))).any(axis=1)
         covered = np.isin(np.arange(z2.size), pairs.ravel()) | (z2 == 0)
         I = 0.5 * molality @ z2
         share = np.divide(0.5 * molality[:, ~covered] @ z2[~covered], I, out=np.zeros(n), where=I > 0)
@@ -304,7 +315,7 @@ class _PitzerAtStates:
     names: tuple
     T_K: np.ndarray
     values: dict
-    pair_outside: np.ndarray      # (n, P) the pair's parameters taken outside their stated T range
+    pair_beyond_K: np.ndarray     # (n, P) how far [K] outside their stated T range the pair's parameters are taken
     A_phi: np.ndarray
 
     def activities(self, molality, rows=slice(None)):

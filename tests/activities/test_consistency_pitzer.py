@@ -36,6 +36,18 @@ def test_range_flags_reach_the_sample_flags():
     assert "pitzer_parameters_outside_their_temperatures" in cold.summary_frame()["flags"][0]
 
 
+def test_a_trace_ion_on_parameters_far_outside_their_range_flags_the_sample():
+    # H+ with Cl- (Campbell et al. 1993, 0-55 C) sets the pH of an acid NaCl fluid: held 95 K
+    # beyond its range at 150 C it flags, though H+ is a trace ion; 20 K beyond it does not
+    def acid(T_C):
+        frame = pd.DataFrame({"sample": ["acid"], "T [degC]": [T_C], "P [bar]": [50.0], "pH": [3.5],
+                              "Na+ [mmol/kg]": [500.0], "Cl- [mmol/kg]": [500.0]})
+        return speciate(frame, "pitzer").sample_flags()[0]
+
+    assert "pitzer_parameters_outside_their_temperatures" in acid(150.0)
+    assert "pitzer_parameters_outside_their_temperatures" not in acid(75.0)
+
+
 def test_ions_without_parameters_are_flagged_beyond_one_percent_of_the_ionic_strength():
     clean = _brine(nacl=0.5)
     ammonium = _brine(nacl=0.5).assign(**{"NH4+ [mmol/kg]": [100.0]})
