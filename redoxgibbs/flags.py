@@ -7,6 +7,7 @@ their freezing point) are not flags: those samples carry a ``failure`` instead.
 """
 
 import numpy as np
+import pandas as pd
 
 __all__ = [
     "ALKALINITY_NOT_USED",
@@ -34,14 +35,18 @@ UNPARAMETERIZED_IONS = "pitzer_ions_without_parameters"
 
 
 def join_flags(a, b):
-    """Element-wise ', '-join of two (broadcast) arrays of flag texts, blanks skipped: the one way
-    flags are combined in every table."""
+    """Element-wise ', '-join of two (broadcast) arrays of flag texts, blanks and repeats skipped:
+    the one way flags are combined in every table."""
     a, b = np.broadcast_arrays(np.asarray(a, dtype=object), np.asarray(b, dtype=object))
     has_a, has_b = a != "", b != ""
     out = np.where(has_a, a, b)
-    both = np.flatnonzero((has_a & has_b).ravel())      # usually few: join only those
+    both = np.flatnonzero((has_a & has_b).ravel())
     if both.size:
-        out.ravel()[both] = [f"{x}, {y}" for x, y in zip(a.ravel()[both], b.ravel()[both])]
+        # few distinct texts, many rows: join each distinct pair once
+        codes, pairs = pd.factorize(a.ravel()[both] + "\n" + b.ravel()[both])
+        joined = np.array([", ".join(dict.fromkeys(p.replace("\n", ", ").split(", "))) for p in pairs],
+                          dtype=object)
+        out.ravel()[both] = joined[codes]
     return out
 
 

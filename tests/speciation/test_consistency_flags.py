@@ -30,3 +30,10 @@ def test_the_hot_acid_chloride_fluid_is_flagged():
     frame = pd.DataFrame({"sample": ["hot"], "T [degC]": [350.0], "P [bar]": [300.0], "pH": [3.5],
                           "pH T [degC]": [25.0], "Na+ [mmol/kg]": [500.0], "Cl- [mmol/kg]": [550.0]})
     assert "outside_formation_T_range" in speciate(frame, "bdot").sample_flags()[0]
+
+
+def test_flags_are_joined_once_each():
+    from redoxgibbs.flags import join_flags
+
+    got = join_flags(np.array(["a, b", "", "c"], dtype=object), np.array(["b, d", "e", ""], dtype=object))
+    assert list(got) == ["a, b, d", "e", "c"]
