@@ -313,18 +313,22 @@ def _species_data_flags(props, rows, m, system, masters, n):
     out = np.full(n, "", dtype=object)
     if props is None:
         return out
-    mr = np.nan_to_num(m[rows])
-    significant = np.zeros(mr.shape, bool)
-    for j, master in enumerate(masters):
-        if master == "H+":
-            continue
-        held = mr * np.abs(system.nu[:, j])
-        total = held.sum(axis=1, keepdims=True)
-        significant |= (system.nu[:, j] != 0) & (held >= SIGNIFICANT_SHARE * total) & (total > 0)
     n_sp = len(system.species)
-    part = np.full(int(rows.sum()), "", dtype=object)
-    for name, where in props.flags.items():
-        part = join_flags(part, np.where((where[:, :n_sp] & significant).any(axis=1), name, ""))
+    flagged = {name: where[:, :n_sp] for name, where in props.flags.items() if where[:, :n_sp].any()}
+    if not flagged:
+        return out
+    mr = np.nan_to_num(m[rows])
+    cols = np.flatnonzero(np.any([w.any(axis=0) for w in flagged.values()], axis=0))   # species ever flagged
+    significant = np.zeros((mr.shape[0], cols.size), bool)
+    for j, master in enumerate(masters):
+        if master == "H+" or not system.nu[cols, j].any():
+            continue
+        total = mr @ np.abs(system.nu[:, j])
+        held = mr[:, cols] * np.abs(system.nu[cols, j])
+        significant |= (system.nu[cols, j] != 0) & (held >= SIGNIFICANT_SHARE * total[:, None]) & (total[:, None] > 0)
+    part = np.full(mr.shape[0], "", dtype=object)
+    for name, where in flagged.items():
+        part = join_flags(part, np.where((where[:, cols] & significant).any(axis=1), name, ""))
     out[rows] = part
     return out
 
