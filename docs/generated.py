@@ -1,6 +1,8 @@
-"""Pages generated from the code at build time: the scenario-file reference (from the typed schema)
-and the verification ledger (from the species data and the tests that check them)."""
+"""Pages generated from the code at build time: the scenario-file reference (from the typed schema),
+the verification ledger (from the species data and the tests that check them) and the known
+departures (the contributor guide's section, so that users read the same list)."""
 
+import re
 from pathlib import Path
 
 from redoxgibbs.interfaces.schema import schema_reference
@@ -35,10 +37,23 @@ def ledger_page():
     return "\n".join(lines) + "\n"
 
 
+def known_departures_page():
+    """The 'Known departures' section of DEVELOPERS.md (its bullets are reStructuredText too, once
+    inline code takes double backquotes)."""
+    text = (Path(__file__).resolve().parents[1] / "DEVELOPERS.md").read_text()
+    section = text.split("### Known departures (from the tests)", 1)[1].split("\n#", 1)[0]
+    body = re.sub(r"`([^`]+)`", r"``\1``", section.replace("*", r"\*"))
+    lines = ["Known departures", "================", "",
+             "Where the data or models depart from outside references, as measured by the tests (each "
+             "a strict expected failure or a stated tolerance there). Results in these ranges carry flags.", ""]
+    return "\n".join(lines) + "\n" + body.strip("\n") + "\n"
+
+
 def write_all(folder):
     folder = Path(folder)
     folder.mkdir(exist_ok=True)
-    for name, text in (("scenario_reference.rst", scenario_reference()), ("ledger.rst", ledger_page())):
+    for name, text in (("scenario_reference.rst", scenario_reference()), ("ledger.rst", ledger_page()),
+                       ("known_departures.rst", known_departures_page())):
         path = folder / name
         if not path.exists() or path.read_text() != text:
             path.write_text(text)
