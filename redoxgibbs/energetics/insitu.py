@@ -38,7 +38,9 @@ NOT_LIMITING = ("H2O(l)", "H+", "OH-")
 def gibbs_energy_kernel(dG0, log10_a, nu, T_K):
     """dGr [J/mol] and log10 Q of reactions: dG0 (n, r) [J/mol], log10_a (n, s), nu (s, r), T (n,)."""
     log_q = log10_a @ nu
-    return dG0 + R_J_MOL_K * LN10 * T_K[:, None] * log_q, log_q
+    dGr = log_q * (R_J_MOL_K * LN10 * np.asarray(T_K, float))[:, None]
+    dGr += dG0                      # in place: one (n, r) array less to allocate and fill
+    return dGr, log_q
 
 
 def energy_density_kernel(dGr, amounts, nu_consumed):
@@ -50,22 +52,24 @@ def energy_density_kernel(dGr, amounts, nu_consumed):
     """
     n, r = dGr.shape
     by_species = np.ascontiguousarray(amounts.T)          # one contiguous row per species
-    allowed = np.zeros((n, r))
-    limiting = np.full((n, r), -1, dtype=np.int16)
+    allowed = np.zeros((r, n))                            # one contiguous row per reaction
+    limiting = np.full((r, n), -1, dtype=np.int16)
     for k in range(r):
         idx = np.flatnonzero(nu_consumed[:, k] > 0)
         if idx.size == 0:
             continue
-        best = by_species[idx[0]] / nu_consumed[idx[0], k]
-        which = np.full(n, idx[0], dtype=np.int16)
+        best, which = allowed[k], limiting[k]
+        np.divide(by_species[idx[0]], nu_consumed[idx[0], k], out=best)
+        which[:] = idx[0]
         for i in idx[1:]:   # the candidates are few: a running minimum beats argmin here
             extent = by_species[i] / nu_consumed[i, k]
             smaller = extent < best
-            best = np.where(smaller, extent, best)
-            which[smaller] = i
-        allowed[:, k] = best
-        limiting[:, k] = which
-    return np.where(dGr < 0, -dGr * allowed, 0.0), limiting
+            np.copyto(best, extent, where=smaller)
+            np.copyto(which, i, where=smaller)
+    energy = np.multiply(dGr, allowed.T)
+    np.negative(energy, out=energy)
+    np.copyto(energy, 0.0, where=~(dGr < 0))
+    return energy, limiting.T
 
 
 @dataclass
