@@ -1,9 +1,10 @@
-"""Benchmark: standard-state properties of 100 species at 10,000 (T, P) states.
+"""Benchmark: standard-state properties of 100 or more species at 10,000 (T, P) states.
 
 Targets (issue "Standard-state thermodynamics engine"): under 2 s for the vectorized call, water
 included, and at least 50x faster than evaluating the same states one at a time through the same
-code. Both are measured side by side in this one run. The data hold 83 species; 17 renamed copies
-of HKF records make up the 100 (their cost is that of any HKF species).
+code. Both are measured side by side in this one run. Every species of the data takes part; when
+the data hold fewer than 100, renamed copies of HKF records make up the 100 (their cost is that of
+any HKF species).
 
 Run: python benchmarks/bench_standard_state.py
 """
