@@ -39,3 +39,20 @@ def seawater_samples(T_C, P_bar, SA=35.16504):
     for sp, m in SEAWATER.items():
         frame[f"{sp} [mol/kg-solution]"] = m * SA / 35.16504
     return frame
+
+
+def pytzer_solution(library, solution, T_K):
+    """Activity coefficients {ion: gamma} and water activity of ``solution`` ({pytzer ion name:
+    mol/kg}) at T_K from the pytzer library's parameter ``library`` (e.g. 'M88', Moller 1988), every
+    other ion of the library at zero; 64-bit JAX, the precision pytzer is checked with."""
+    import jax
+
+    jax.config.update("jax_enable_x64", True)
+    import pytzer
+
+    pz = pytzer.set_library(pytzer, library)
+    full = {s: 0.0 for s in list(pz.library.cations) + list(pz.library.anions) + list(pz.library.neutrals)}
+    full.update(solution)
+    gamma = pz.activity_coefficients(full, temperature=T_K, pressure=10.1325)
+    aw = pz.activity_water(full, temperature=T_K, pressure=10.1325)
+    return {k: float(gamma[k]) for k in solution}, float(aw)

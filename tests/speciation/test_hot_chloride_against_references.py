@@ -7,27 +7,22 @@ The B-dot result is the stoichiometric one: free-ion activities over the analyti
 the share of NaCl(aq) counts.
 """
 
-import jax
 import numpy as np
 import pandas as pd
 import pytest
 
+from reference_equations import pytzer_solution
+
 from redoxgibbs.speciation.solver import speciate
 from redoxgibbs.water.iapws95 import psat_convention_bar
-
-jax.config.update("jax_enable_x64", True)
-import pytzer
 
 SALTS = {"NaCl": ("Na", "Na+", 1), "CaCl2": ("Ca", "Ca^2+", 2)}
 
 
 def _moller_1988(salt, m, T_K):
-    pz = pytzer.set_library(pytzer, "M88")
     ion, _, n_cl = SALTS[salt]
-    full = {s: 0.0 for s in list(pz.library.cations) + list(pz.library.anions) + list(pz.library.neutrals)}
-    full.update({ion: m, "Cl": n_cl * m})
-    g = pz.activity_coefficients(full, temperature=T_K, pressure=10.1325)
-    return (float(g[ion]) * float(g["Cl"]) ** n_cl) ** (1 / (1 + n_cl))
+    g, _ = pytzer_solution("M88", {ion: m, "Cl": n_cl * m}, T_K)
+    return (g[ion] * g["Cl"] ** n_cl) ** (1 / (1 + n_cl))
 
 
 def _bdot(salt, ms, T_C):

@@ -11,7 +11,6 @@ seawater (common practice: Dickson, Sabine & Christian 2007, PICES Special Publi
 """
 
 import numpy as np
-import pandas as pd
 import pytest
 import PyCO2SYS as pyco2
 
